@@ -1,0 +1,107 @@
+"""The whole job in one call: read a model, check every timber bending member, hold the verdicts.
+
+``check_model`` accepts a path or an ``ifcopenshell.file`` already open in a host application
+(the plug-in use) and returns a :class:`CheckResult`; nothing is written anywhere until one of
+its ``write_*`` methods is called, and a host's model is changed only by ``apply_to_model``.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import pandas as pd
+
+from . import __version__
+from .design import VERDICT_COLUMNS, get_basis
+from .design.inputs import design_inputs
+from .ifc import open_model, read_model
+from .ifc.writer import copy_model, write_model_atomically, write_verdicts
+from .model import ModelUnits
+from .report.csv_out import write_exceptions_csv
+from .rules import load_rules
+
+
+@dataclass
+class CheckResult:
+    """Verdicts of one run. ``table`` has one row per candidate member (core units: in, lbf, psi)."""
+
+    model: object  # ifcopenshell.file
+    table: pd.DataFrame
+    skipped: list
+    units: ModelUnits
+    schema: str
+    rules: dict
+    owns_model: bool = False  # True when check_model opened the file itself
+    _applied: bool = field(default=False, repr=False)
+
+    @property
+    def checked_with(self) -> str:
+        return f"ifccheck {__version__}"
+
+    def counts(self) -> dict:
+        by_status = self.table["status"].value_counts() if len(self.table) else {}
+        return {
+            "PASS": int(by_status.get("PASS", 0)),
+            "FAIL": int(by_status.get("FAIL", 0)),
+            "NOT_CHECKED": int(by_status.get("NOT_CHECKED", 0)),
+            "skipped": len(self.skipped),
+        }
+
+    @property
+    def failed(self) -> bool:
+        return self.counts()["FAIL"] > 0
+
+    def exceptions(self) -> pd.DataFrame:
+        """The rows a reviewer must look at: every FAIL and NOT_CHECKED member."""
+        return self.table[self.table["status"].isin(["FAIL", "NOT_CHECKED"])]
+
+    def apply_to_model(self) -> None:
+        """Write the verdict property sets into ``self.model`` (replacing earlier ones). For a host's
+        open model this changes the host's model: call it only when that is wanted."""
+        if not self._applied:
+            write_verdicts(self.model, self.table, self.units, self.checked_with)
+            self._applied = True
+
+    def write_ifc(self, path) -> Path:
+        """Write the checked model to ``path`` atomically; a host's model stays untouched."""
+        if self.owns_model or self._applied:
+            self.apply_to_model()
+            target = self.model
+        else:
+            target = copy_model(self.model)
+            write_verdicts(target, self.table, self.units, self.checked_with)
+        return write_model_atomically(target, Path(path))
+
+    def write_csv(self, path) -> Path:
+        """Write the exception list (FAIL and NOT_CHECKED members) to ``path`` atomically."""
+        return write_exceptions_csv(self.exceptions(), Path(path), self.units, self.rules)
+
+
+def check_model(model_or_path, rules=None) -> CheckResult:
+    """Check every timber bending member of a model.
+
+    ``model_or_path``: a path to an IFC file, or an open ``ifcopenshell.file``. ``rules``: None
+    (rules/ defaults), a path to a project TOML file, or a dict of the same form.
+    """
+    merged = load_rules(rules)
+    owns = not hasattr(model_or_path, "by_type")
+    model = open_model(model_or_path) if owns else model_or_path
+    read = read_model(model, merged)
+    inputs = design_inputs(read.members, merged)
+    basis = get_basis(merged["defaults"]["design_basis"])
+    verdicts = basis.check(inputs, merged) if len(inputs) else pd.DataFrame(columns=VERDICT_COLUMNS)
+    table = inputs.drop(columns=[c for c in verdicts.columns if c in inputs.columns]).join(verdicts)
+    table["provenance"] = [_provenance(row) for row in table.itertuples()]
+    return CheckResult(model, table, read.skipped, read.units, read.schema, merged, owns_model=owns)
+
+
+def _provenance(row) -> str:
+    parts = list(row.notes)
+    if getattr(row, "identified_from", ""):
+        parts.append(row.identified_from)
+    if row.load_sources:
+        parts.append(f"loads from {row.load_sources}")
+    if row.defaults_used:
+        parts.append("assumed: " + "; ".join(row.defaults_used))
+    return " | ".join(parts)

@@ -1,0 +1,67 @@
+"""Command line: ``ifccheck check MODEL.ifc [-o OUT.ifc] [--csv OUT.csv] [--rules PROJECT.toml] [--in-place]``.
+
+Exit codes: 0 ran and nothing fails; 1 ran and at least one member fails; 2 could not run.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from . import CAUTION, __version__
+from .atomic import atomic_target
+from .errors import IfcCheckError
+
+
+def _parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="ifccheck",
+        description="Check every timber bending member of an IFC model by allowable stress design. " + CAUTION,
+    )
+    parser.add_argument("--version", action="version", version=f"ifccheck {__version__}")
+    commands = parser.add_subparsers(dest="command", required=True)
+    check = commands.add_parser("check", help="check a model and write verdicts and the exception list")
+    check.add_argument("model", type=Path, help="the IFC model to check")
+    check.add_argument("-o", "--output", type=Path, help="checked model to write (default MODEL.checked.ifc)")
+    check.add_argument("--csv", type=Path, help="exception list to write (default MODEL.exceptions.csv)")
+    check.add_argument("--rules", type=Path, help="project rules file (TOML) over the rules/ defaults")
+    check.add_argument("--in-place", action="store_true", help="write the verdicts into MODEL itself")
+    return parser
+
+
+def _outputs(args) -> "tuple[Path, Path]":
+    model = args.model
+    stem = model.name[: -len(model.suffix)] if model.suffix else model.name
+    ifc_out = model if args.in_place else (args.output or model.with_name(f"{stem}.checked.ifc"))
+    csv_out = args.csv or model.with_name(f"{stem}.exceptions.csv")
+    return ifc_out, csv_out
+
+
+def run_check(args) -> int:
+    from .checker import check_model
+    from .report.console import summary
+
+    ifc_out, csv_out = _outputs(args)
+    if args.in_place and args.output:
+        raise IfcCheckError("use either --in-place or -o, not both")
+    result = check_model(args.model, args.rules)
+    # both outputs are written to temporary files and renamed only when both succeeded
+    with atomic_target(ifc_out) as ifc_tmp, atomic_target(csv_out) as csv_tmp:
+        result.write_ifc(ifc_tmp)
+        result.write_csv(csv_tmp)
+    print(summary(result, [str(ifc_out), str(csv_out)]))
+    return 1 if result.failed else 0
+
+
+def main(argv=None) -> int:
+    args = _parser().parse_args(argv)
+    try:
+        return run_check(args)
+    except IfcCheckError as exc:
+        print(f"ifccheck: cannot run: {exc}", file=sys.stderr)
+        return 2
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,145 @@
+"""Design inputs per member: loads, bearing, service conditions and bracing, with the defaults used.
+
+Turns the reader's :class:`~ifccheck.model.MemberRecord` list into one table (a DataFrame, core
+units: inch, lbf, lbf/in, degF) that any design basis can check. Each value records whether it
+came from the model or from a default, so the verdict can name every assumption.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pandas as pd
+
+from ..model import AREA_LOAD_PROPS, LINE_LOAD_PROPS, LOAD_TYPES, MemberRecord
+from ..units import parse_quantity, parse_temperature_f
+
+LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
+
+
+def _section_text(section) -> str:
+    if section is None:
+        return ""
+    ply = f"{section.plies}-ply " if section.plies > 1 else ""
+    return f"{ply}{section.ply_width:.3g}x{section.depth:.3g} in"
+
+
+def superimposed_loads(record: MemberRecord) -> "tuple[dict, list, list]":
+    """Line loads by type (lbf/in, per horizontal length) from the input property set.
+
+    Line loads and area loads × TributaryWidth add. Returns (loads, sources, problems).
+    """
+    loads = {t: 0.0 for t in LOAD_TYPES}
+    sources, problems = [], []
+    for prop, load_type in LINE_LOAD_PROPS.items():
+        if prop in record.inputs:
+            loads[load_type] += record.inputs[prop]
+            sources.append(f"{prop} ({record.input_sources.get(prop, 'occurrence')})")
+    area = {p: t for p, t in AREA_LOAD_PROPS.items() if p in record.inputs}
+    if area:
+        width = record.inputs.get("TributaryWidth")
+        if width is None:
+            problems.append("area loads given but no TributaryWidth")
+        else:
+            for prop, load_type in area.items():
+                loads[load_type] += record.inputs[prop] * width
+                sources.append(f"{prop} x TributaryWidth")
+    return loads, sources, problems
+
+
+def _flag(record, name, default, label, defaults_used):
+    if name in record.inputs:
+        return record.inputs[name]
+    defaults_used.append(label)
+    return default
+
+
+def _bracing(record, braced_type: bool, ptype: str, defaults_used: list) -> bool:
+    """Whether the compression edge is held along the length: the input says, or an UnbracedLength
+    implies not, or the member type's default (sheathing on joists and rafters) applies."""
+    if "ContinuouslyBraced" in record.inputs:
+        return bool(record.inputs["ContinuouslyBraced"])
+    if "UnbracedLength" in record.inputs:
+        return False
+    state = "braced by sheathing" if braced_type else "unbraced over the span"
+    defaults_used.append(f"compression edge {state} ({ptype} default)")
+    return braced_type
+
+
+def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
+    """One row per candidate member with everything a design basis needs (core units)."""
+    d = rules["defaults"]
+    bearing_default = parse_quantity(d["bearing_length"], "length")
+    temperature_default = parse_temperature_f(d["service_temperature"])
+    braced_types = set(d["continuously_braced_types"])
+    repetitive_types = set(d["repetitive_types"])
+    rows = []
+    for r in records:
+        used: list = []
+        problems = list(r.problems)
+        loads, load_sources, load_problems = superimposed_loads(r)
+        problems += load_problems
+        if not load_sources:
+            problems.append("no loads found (no ifccheck_DesignInput loads)")
+        ptype = r.predefined_type or "NOTDEFINED"
+        braced = _bracing(r, ptype in braced_types, ptype, used)
+        member_use = rules["member_use"].get(ptype, "floor")
+        sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"],
+                            "self-weight " + ("included in dead load" if d["self_weight_included"] else "added")
+                            + " (rules default)", used)
+        s = r.section
+        rows.append(
+            {
+                "global_id": r.global_id,
+                "name": r.name,
+                "ifc_class": r.ifc_class,
+                "predefined_type": ptype,
+                "storey": r.storey,
+                "section": _section_text(s),
+                "section_source": s.source if s else "",
+                "b": s.width if s else math.nan,
+                "d": s.depth if s else math.nan,
+                "plies": s.plies if s else 1,
+                "material_name": r.material.name,
+                "material_category": r.material.category,
+                "material_species": r.material.species,
+                "material_grade": r.material.grade,
+                "input_species": r.inputs.get("Species", ""),
+                "input_grade": r.inputs.get("Grade", ""),
+                "span_read": r.span if r.span is not None else math.nan,
+                "span_is_clear": r.span_is_clear,
+                "span_source": r.span_source,
+                "slope": r.slope,
+                **{f"w_{t}": loads[t] for t in LOAD_TYPES},
+                "load_sources": "; ".join(load_sources),
+                "self_weight_included": bool(sw_included),
+                "bearing_length": _flag(r, "BearingLength", bearing_default,
+                                        f"bearing length {d['bearing_length']} (rules default)", used),
+                "wet": bool(_flag(r, "WetService", d["wet_service"], "dry service (rules default)", used)),
+                "temperature_F": _flag(r, "ServiceTemperature", temperature_default,
+                                       f"service temperature {d['service_temperature']} (rules default)", used),
+                "incised": bool(d["incised"]),
+                "braced": bool(braced),
+                "unbraced_length": r.inputs.get("UnbracedLength", np.nan),
+                "repetitive": bool(_flag(r, "RepetitiveMember", ptype in repetitive_types,
+                                         f"repetitive member {'yes' if ptype in repetitive_types else 'no'} "
+                                         f"({ptype} default)", used)),
+                "member_use": member_use,
+                "n_live_input": r.inputs.get("LiveDeflectionLimit", np.nan),
+                "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
+                "defaults_used": used,
+                "problems": problems,
+                "notes": list(r.notes),
+            }
+        )
+    return pd.DataFrame(rows, columns=_COLUMNS)
+
+
+_COLUMNS = [
+    "global_id", "name", "ifc_class", "predefined_type", "storey", "section", "section_source", "b", "d",
+    "plies", "material_name", "material_category", "material_species", "material_grade", "input_species",
+    "input_grade", "span_read", "span_is_clear", "span_source", "slope", *LOAD_COLUMNS, "load_sources",
+    "self_weight_included", "bearing_length", "wet", "temperature_F", "incised", "braced", "unbraced_length",
+    "repetitive", "member_use", "n_live_input", "n_total_input", "defaults_used", "problems", "notes",
+]

@@ -1,0 +1,136 @@
+"""Writing verdicts back into an IFC model, and writing the model to disk atomically.
+
+Each checked member gets one ``ifccheck_Verdict`` property set; earlier ones are removed first, so
+a rerun replaces verdicts instead of stacking them. Values are written in the model's own units
+(the unit assignment of each measure type; SI where the model assigns none).
+"""
+
+from __future__ import annotations
+
+import math
+from pathlib import Path
+
+import ifcopenshell
+import ifcopenshell.guid
+import numpy as np
+
+from ..atomic import atomic_target
+from ..model import VERDICT_PSET, ModelUnits
+
+#: verdict property -> (table column, IFC measure type, unit kind or None)
+_MEASURED = (
+    ("MaxUtilization", "max_util", "IfcRatioMeasure", None),
+    ("BendingUtilization", "util_bending", "IfcRatioMeasure", None),
+    ("ShearUtilization", "util_shear", "IfcRatioMeasure", None),
+    ("LiveDeflectionUtilization", "util_deflection_live", "IfcRatioMeasure", None),
+    ("TotalDeflectionUtilization", "util_deflection_total", "IfcRatioMeasure", None),
+    ("BearingUtilization", "util_bearing", "IfcRatioMeasure", None),
+    ("DesignSpan", "design_span", "IfcLengthMeasure", "length"),
+    ("AllowableSpan", "allowable_span", "IfcLengthMeasure", "length"),
+    ("RequiredArea", "required_A", "IfcAreaMeasure", "area"),
+    ("RequiredSectionModulus", "required_S", "IfcSectionModulusMeasure", "section_modulus"),
+    ("RequiredMomentOfInertia", "required_I", "IfcMomentOfInertiaMeasure", "moment_of_inertia"),
+)
+_LABELS = (
+    ("Status", "status", "IfcLabel"),
+    ("Reason", "reason", "IfcText"),
+    ("GoverningCheck", "governing_check", "IfcLabel"),
+    ("GoverningCombination", "governing_combination", "IfcLabel"),
+    ("DesignBasis", "design_basis", "IfcLabel"),
+)
+
+
+def copy_model(model: ifcopenshell.file) -> ifcopenshell.file:
+    """An independent copy of a model (so a host's open model is never changed by writing)."""
+    return ifcopenshell.file.from_string(model.to_string())
+
+
+def remove_verdicts(model: ifcopenshell.file) -> int:
+    """Remove every earlier ifccheck_Verdict property set with its relations and properties."""
+    psets = [p for p in model.by_type("IfcPropertySet") if p.Name == VERDICT_PSET]
+    removed_props: set = set()
+    for pset in psets:
+        for rel in [r for r in model.get_inverse(pset) if r.is_a("IfcRelDefinesByProperties")]:
+            model.remove(rel)
+        props = [p for p in (pset.HasProperties or ()) if p.id() not in removed_props]
+        model.remove(pset)
+        for prop in props:
+            if not model.get_inverse(prop):  # not used by any other property set
+                removed_props.add(prop.id())
+                model.remove(prop)
+    return len(psets)
+
+
+class _PropertyFactory:
+    """Creates property entities, sharing identical ones (same name, type and value) between sets."""
+
+    def __init__(self, model: ifcopenshell.file):
+        self.model = model
+        self._cache: dict = {}
+
+    def single(self, name: str, ifc_type: str, value):
+        key = (name, ifc_type, value)
+        prop = self._cache.get(key)
+        if prop is None:
+            prop = self.model.create_entity(
+                "IfcPropertySingleValue", Name=name, NominalValue=self.model.create_entity(ifc_type, value)
+            )
+            self._cache[key] = prop
+        return prop
+
+
+def _owner_history(model: ifcopenshell.file):
+    """IFC2X3 requires an owner history on every rooted entity: reuse the project's (or any)."""
+    if model.schema != "IFC2X3":
+        return None
+    project = (model.by_type("IfcProject") or [None])[0]
+    if project is not None and project.OwnerHistory is not None:
+        return project.OwnerHistory
+    histories = model.by_type("IfcOwnerHistory")
+    return histories[0] if histories else None
+
+
+def write_verdicts(model: ifcopenshell.file, table, units: ModelUnits, checked_with: str) -> int:
+    """Attach one ifccheck_Verdict set to every member of ``table`` (core units); returns the count."""
+    remove_verdicts(model)
+    factory = _PropertyFactory(model)
+    history = _owner_history(model)
+    scale = {kind: 1.0 / units.to_core[kind] for kind in ("length", "area", "section_modulus", "moment_of_inertia")}
+    count = 0
+    columns = {c: table[c].to_numpy() for c in table.columns}
+    for k, guid in enumerate(columns["global_id"]):
+        element = _by_guid(model, guid)
+        if element is None:
+            continue
+        props = [factory.single(name, ifc_type, str(columns[col][k]))
+                 for name, col, ifc_type in _LABELS if str(columns[col][k] or "")]
+        for name, col, ifc_type, kind in _MEASURED:
+            value = float(columns[col][k]) if columns[col][k] is not None else math.nan
+            if np.isfinite(value):
+                value = value * scale[kind] if kind else value
+                props.append(factory.single(name, ifc_type, round(value, 6 if kind is None else 9)))
+        props.append(factory.single("CheckedWith", "IfcLabel", checked_with))
+        pset = model.create_entity(
+            "IfcPropertySet", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history, Name=VERDICT_PSET,
+            HasProperties=props,
+        )
+        model.create_entity(
+            "IfcRelDefinesByProperties", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history,
+            RelatedObjects=[element], RelatingPropertyDefinition=pset,
+        )
+        count += 1
+    return count
+
+
+def _by_guid(model: ifcopenshell.file, guid: str):
+    try:
+        return model.by_guid(guid)
+    except RuntimeError:
+        return None
+
+
+def write_model_atomically(model: ifcopenshell.file, path: Path) -> Path:
+    """Write ``model`` to ``path`` through a temporary file beside it (never a half-written file)."""
+    with atomic_target(path) as tmp:
+        model.write(str(tmp), format=".ifc")
+    return Path(path)

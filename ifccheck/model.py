@@ -1,0 +1,130 @@
+"""Typed records passed between the reader, the design checks and the writers.
+
+All numbers are in the core unit system of :mod:`ifccheck.units` (inch, lbf, psi, lbf/in,
+degrees Fahrenheit). The reader fills these records from an IFC model; nothing here touches
+ifcopenshell.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Optional
+
+#: ASD load types, in the order used by every load array: dead, floor live, roof live, snow, wind
+LOAD_TYPES = ("D", "L", "Lr", "S", "W")
+
+#: names of the input property set and its load properties (ours; documented in the README)
+INPUT_PSET = "ifccheck_DesignInput"
+VERDICT_PSET = "ifccheck_Verdict"
+LINE_LOAD_PROPS = {"DeadLoad": "D", "LiveLoad": "L", "RoofLiveLoad": "Lr", "SnowLoad": "S", "WindLoad": "W"}
+AREA_LOAD_PROPS = {"DeadAreaLoad": "D", "LiveAreaLoad": "L", "RoofLiveAreaLoad": "Lr", "SnowAreaLoad": "S"}
+
+#: every property of the input property set and its kind: "linear_force", "planar_force",
+#: "length", "bool", "label", "temperature" or "number" (a plain ratio such as the n of L/n)
+INPUT_PROPS = {
+    **{name: "linear_force" for name in LINE_LOAD_PROPS},
+    **{name: "planar_force" for name in AREA_LOAD_PROPS},
+    "TributaryWidth": "length",
+    "SelfWeightIncluded": "bool",
+    "Species": "label",
+    "Grade": "label",
+    "RepetitiveMember": "bool",
+    "WetService": "bool",
+    "ServiceTemperature": "temperature",
+    "ContinuouslyBraced": "bool",
+    "UnbracedLength": "length",
+    "BearingLength": "length",
+    "LiveDeflectionLimit": "number",
+    "TotalDeflectionLimit": "number",
+}
+
+
+@dataclass(frozen=True)
+class Section:
+    """A rectangular (possibly built-up) cross-section as found in the model.
+
+    ``width`` is the dimension across the bending plane (b) and ``depth`` the one in the
+    vertical bending plane (d), both in inches; for a built-up member ``width`` is the total of
+    all ``plies``.
+    """
+
+    width: float
+    depth: float
+    plies: int = 1
+    source: str = ""  # "profile set", "extrusion", "base quantities"
+    profile_name: str = ""
+
+    @property
+    def ply_width(self) -> float:
+        return self.width / self.plies
+
+
+@dataclass(frozen=True)
+class MaterialInfo:
+    """What the model says about a member's material, before any design-basis lookup."""
+
+    name: str = ""
+    category: str = ""
+    species: str = ""  # Pset_MaterialWood.Species
+    grade: str = ""  # Pset_MaterialWood.StrengthGrade
+    kind: str = "unknown"  # "timber", "non_timber" or "unknown"
+    matched: str = ""  # the word or pattern that decided the kind
+    source: str = ""  # "occurrence" or "type"
+
+
+@dataclass
+class MemberRecord:
+    """One candidate bending member read from the model (core units)."""
+
+    global_id: str
+    name: str
+    ifc_class: str
+    predefined_type: str
+    storey: str
+    material: MaterialInfo
+    section: Optional[Section]
+    #: span length as read (inches) and where it came from; ``span_is_clear`` is True when it is
+    #: a clear span between supports (Pset ``Span``), False when it is the member's length
+    span: Optional[float] = None
+    span_source: str = ""
+    span_is_clear: bool = False
+    #: slope of the member axis from horizontal, degrees (0 when unknown)
+    slope: float = 0.0
+    #: input property set values in core units, keyed by property name (see INPUT_PROPS)
+    inputs: dict = field(default_factory=dict)
+    #: where each input came from ("occurrence" or "type"), keyed like ``inputs``
+    input_sources: dict = field(default_factory=dict)
+    #: provenance notes: what was read from where and what was assumed
+    notes: list = field(default_factory=list)
+    #: reasons found while reading that prevent a check (lead to NOT_CHECKED)
+    problems: list = field(default_factory=list)
+
+
+@dataclass(frozen=True)
+class SkippedElement:
+    """A candidate class element left out of the check, with the reason (counted, not judged)."""
+
+    global_id: str
+    name: str
+    ifc_class: str
+    reason: str  # e.g. "non-timber material 'S235' (steel)", "LoadBearing is FALSE", "steeper than 60°"
+    category: str  # "non_timber", "not_load_bearing" or "not_bending"
+
+
+@dataclass
+class ModelUnits:
+    """The model's unit scales: factor from the model's unit of each kind to core units."""
+
+    to_core: dict  # kind -> float (model value * factor = core value)
+    length_name: str = "metre"
+    system: str = "metric"  # "metric" or "imperial", decides CSV and console units
+
+
+@dataclass
+class ReadResult:
+    """Everything the reader hands on: candidates, skipped elements, units, schema."""
+
+    schema: str
+    units: ModelUnits
+    members: list  # list[MemberRecord]
+    skipped: list  # list[SkippedElement]

@@ -1,0 +1,1 @@
+"""Reports for people: the CSV exception list and the console summary."""

@@ -1,0 +1,45 @@
+"""The short console summary of a run: counts, the ten worst members, the caution."""
+
+from __future__ import annotations
+
+from .. import CAUTION
+from .display import factor, report_system
+
+
+def summary(result, outputs: "list[str]" = ()) -> str:
+    """Text printed after a run (what a coordinator reads first)."""
+    counts = result.counts()
+    lines = [
+        f"ifccheck {result.schema} model, {len(result.table)} timber bending candidates "
+        f"({result.table['design_basis'].dropna().iloc[0] if result.table['design_basis'].notna().any() else 'no basis run'})",
+        f"  PASS {counts['PASS']}   FAIL {counts['FAIL']}   NOT_CHECKED {counts['NOT_CHECKED']}   "
+        f"skipped (not timber bending members) {counts['skipped']}",
+    ]
+    skipped_by = {}
+    for s in result.skipped:
+        skipped_by[s.category] = skipped_by.get(s.category, 0) + 1
+    if skipped_by:
+        lines.append("  skipped: " + ", ".join(f"{k.replace('_', ' ')} {v}" for k, v in sorted(skipped_by.items())))
+    worst = result.table[result.table["max_util"].notna()].sort_values("max_util", ascending=False).head(10)
+    if len(worst):
+        system = report_system(result.units, result.rules)
+        length, f_len = factor(system, "length")
+        lines.append("  worst members:")
+        lines.append(f"    {'name':<18} {'GlobalId':<22} {'storey':<14} {'section':<16} {'grade':<26} "
+                     f"{'span ' + length:>8} {'check':<17} {'util':>6}")
+        for row in worst.itertuples():
+            grade = f"{row.species} {row.grade}".strip()
+            lines.append(
+                f"    {str(row.name)[:18]:<18} {row.global_id:<22} {str(row.storey)[:14]:<14} "
+                f"{str(row.nominal)[:16]:<16} {grade[:26]:<26} {row.design_span * f_len:>8.2f} "
+                f"{row.governing_check:<17} {row.max_util:>6.2f}"
+            )
+    not_checked = result.table[result.table["status"] == "NOT_CHECKED"]
+    if len(not_checked):
+        lines.append(f"  not checked ({len(not_checked)}), first reasons:")
+        for row in not_checked.head(5).itertuples():
+            lines.append(f"    {str(row.name)[:18]:<18} {row.global_id:<22} {str(row.reason)[:100]}")
+    for path in outputs:
+        lines.append(f"  wrote {path}")
+    lines.append(f"CAUTION: {CAUTION}")
+    return "\n".join(lines)
