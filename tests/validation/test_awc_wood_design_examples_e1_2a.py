@@ -18,9 +18,15 @@ B, D, LU = 3.5, 15.25, 240.0  # example's section (in) and unbraced length (in)
 
 
 def test_reference_values_used_by_the_example():
-    # NDS Supplement 2018, Table 4A, DF-L Select Structural (as listed in Example E1.2a)
+    # NDS Supplement 2018, Table 4A, DF-L Select Structural, as listed in Example E1.2a (exact)
     row = values.reference_values("Douglas Fir-Larch", "Select Structural", "dimension", 16)
-    assert (row["Fb"], row["Emin"]) == (1500, 690000)
+    assert (row["Fb"], row["E"], row["Emin"], row["Fc_perp"], row["Fv"]) == (1500, 1_900_000, 690_000, 625, 180)
+
+
+def test_dressed_size_of_4x16():
+    # Example E1.2a: a 4x16 is 3.5 x 15.25 in (within 0.001 in)
+    assert values.nominal_size(3.5) == (4.0, True)
+    assert values.nominal_size(15.25) == (16.0, True)
 
 
 def test_size_factor_is_one_for_4x16():

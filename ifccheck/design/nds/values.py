@@ -15,6 +15,9 @@ import numpy as np
 from ...errors import DesignValueLookupError
 from ...rules import read_table
 
+#: a written size such as "2 x 10" is one token, so its digits are never read as a grade
+_SIZE = re.compile(r"(\d+(?:\.\d+)?)\s*[x\u00d7*]\s*(\d+)")
+
 #: tolerance when matching an actual dimension to a standard dressed size (inches), common practice
 DRESSED_SIZE_TOLERANCE = 0.0625
 
@@ -55,7 +58,7 @@ def identify(texts: "list[tuple[str, str]]") -> Identification:
     for label, text in texts:
         if not text:
             continue
-        tokens = normalise(text).split()
+        tokens = normalise(_SIZE.sub(r"\1x\2", str(text).lower())).split()
         if not species:
             hit = _find_run(tokens, _aliases("species"))
             if hit:
