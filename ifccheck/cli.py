@@ -6,6 +6,7 @@ Exit codes: 0 ran and nothing fails; 1 ran and at least one member fails; 2 coul
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from pathlib import Path
 
@@ -50,7 +51,10 @@ def run_check(args) -> int:
     with atomic_target(ifc_out) as ifc_tmp, atomic_target(csv_out) as csv_tmp:
         result.write_ifc(ifc_tmp)
         result.write_csv(csv_tmp)
-    print(summary(result, [str(ifc_out), str(csv_out)]))
+    try:
+        print(summary(result, [str(ifc_out), str(csv_out)]), flush=True)
+    except BrokenPipeError:  # the summary was piped into a reader that stopped early (e.g. head)
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
     return 1 if result.failed else 0
 
 

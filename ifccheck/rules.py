@@ -13,6 +13,7 @@ from pathlib import Path
 import pandas as pd
 
 from .errors import RulesError
+from .units import parse_quantity, parse_temperature_f
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -86,4 +87,34 @@ def load_rules(project: "str | Path | dict | None" = None) -> dict:
                     f"{where}: [{section}] {key} = {value!r} should be a {type(expected).__name__} like {expected!r}"
                 )
             merged[section][key] = value
+    check_values(merged, where)
     return merged
+
+
+_CHOICES = {
+    "shear_section": ("support_face", "support_centre", "d_from_face"),
+    "report_units": ("auto", "imperial", "metric"),
+}
+
+
+def check_values(rules: dict, where: str = "rules") -> None:
+    """Reject impossible values with a message naming the key and what was expected."""
+    d = rules["defaults"]
+    for key, choices in _CHOICES.items():
+        if d[key] not in choices:
+            raise RulesError(f"{where}: [defaults] {key} = {d[key]!r}; expected one of {', '.join(choices)}")
+    try:
+        bearing = parse_quantity(d["bearing_length"], "length")
+        parse_temperature_f(d["service_temperature"])
+    except ValueError as exc:
+        raise RulesError(f"{where}: [defaults] {exc}") from exc
+    if not bearing > 0:
+        raise RulesError(f"{where}: [defaults] bearing_length = {d['bearing_length']!r} must be positive")
+    if not 0 < d["max_bending_slope"] <= 90:
+        raise RulesError(f"{where}: [defaults] max_bending_slope must be between 0 and 90 degrees")
+    uses = set(read_table("ibc2018/deflection_limits.csv")["member_use"])
+    for ptype, use in rules["member_use"].items():
+        if use not in uses:
+            raise RulesError(
+                f"{where}: [member_use] {ptype}: member use {use!r} is not one of {', '.join(sorted(uses))}"
+            )

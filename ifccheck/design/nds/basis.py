@@ -101,8 +101,17 @@ class NdsBasis:
         ]
         t["species"] = [i.species for i in ids]
         t["grade"] = [i.grade for i in ids]
-        t["identified_from"] = [f"species from {i.species_from}, grade from {i.grade_from}" for i in ids]
+        t["identified_from"] = [
+            f"species from {i.species_from or 'nowhere'}, grade from {i.grade_from or 'nowhere'}" for i in ids
+        ]
         for k, (i, row) in enumerate(zip(ids, t.itertuples())):
+            # a Species or Grade the user gave must be understood, never silently passed over
+            if row.input_grade and not values.identify([("", row.input_grade)]).grade:
+                problems[k].append(f"input Grade '{row.input_grade}' is not an NDS grade in rules/nds2018")
+                continue
+            if row.input_species and not values.identify([("", row.input_species)]).species:
+                problems[k].append(f"input Species '{row.input_species}' is not an NDS species in rules/nds2018")
+                continue
             if not i.grade:
                 seen = row.input_grade or row.material_grade or row.material_name
                 problems[k].append(f"grade not identified ('{seen}' is not an NDS grade in rules/nds2018)")
