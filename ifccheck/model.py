@@ -36,6 +36,8 @@ INPUT_PROPS = {
     "BearingLength": "length",
     "LiveDeflectionLimit": "number",
     "TotalDeflectionLimit": "number",
+    # number of equal plies a built-up member's modelled (total) width is made of
+    "Plies": "number",
 }
 
 
@@ -70,6 +72,8 @@ class MaterialInfo:
     kind: str = "unknown"  # "timber", "non_timber" or "unknown"
     matched: str = ""  # the word or pattern that decided the kind
     source: str = ""  # "occurrence" or "type"
+    #: True when the material says non-timber but the input property set names a species or grade
+    contradicted: bool = False
 
 
 @dataclass

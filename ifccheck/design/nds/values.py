@@ -98,6 +98,7 @@ def _dressed_sizes(applies_to: str) -> tuple:
     return tuple(zip(table["nominal"].astype(float), table["dressed_in"].astype(float)))
 
 
+@functools.lru_cache(maxsize=4096)
 def nominal_size(actual: float) -> "tuple[float, bool]":
     """Nominal size (in) of a dressed dimension, and whether it matched a standard size exactly.
 
@@ -127,6 +128,7 @@ def product_of(nominal_thickness: float, nominal_width: float, grade: str) -> st
     return "posts_timbers"
 
 
+@functools.lru_cache(maxsize=4096)
 def reference_values(species: str, grade: str, product: str, nominal_width: float) -> dict:
     """The reference design values row (psi) for species, grade, product and nominal width.
 
@@ -145,4 +147,4 @@ def reference_values(species: str, grade: str, product: str, nominal_width: floa
             f"no NDS reference values for {species} {grade} at nominal width {int(nominal_width)} in "
             "(size-specific table); add the row to rules/nds2018/reference_values.csv"
         )
-    return sized.iloc[0].to_dict()
+    return sized.iloc[0].to_dict()  # callers must not change it: the result is cached

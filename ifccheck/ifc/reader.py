@@ -1,0 +1,590 @@
+"""Reading the candidate bending members of an IFC model into MemberRecords (core units).
+
+One pass over IfcBeam and IfcMember (subtypes included). Each element is either a candidate
+(:class:`MemberRecord`, with notes on where each value came from and problems that prevent a
+check) or a :class:`SkippedElement` with the reason: not a bending member type, LoadBearing FALSE,
+non-timber material, or an axis steeper than ``max_bending_slope``. Odd data never stops the
+pass: what cannot be read becomes a problem of that member.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+from typing import Optional
+
+import ifcopenshell
+import ifcopenshell.util.element as ifc_element
+import numpy as np
+
+from ..errors import ModelReadError
+from ..model import INPUT_PROPS, INPUT_PSET, MaterialInfo, MemberRecord, ReadResult, SkippedElement
+from ..units import to_temperature_f
+from .materials import UNKNOWN, MaterialReader
+from .sections import SectionReader, axis_matrix, body_of, placed, profile_set_of
+from .units import format_length, format_section, model_temperature_unit, model_units, property_unit_to_core, temperature_unit
+
+#: IfcMember types that carry bending; every other IfcMember type (POST, STUD, BRACE, ...) is skipped
+BENDING_MEMBER_TYPES = frozenset({"RAFTER", "PURLIN", "STRINGER", "MEMBER", "NOTDEFINED", "USERDEFINED"})
+
+#: predefined type names of IfcBeamTypeEnum and IfcMemberTypeEnum (IFC4X3), for USERDEFINED types
+KNOWN_PREDEFINED_TYPES = frozenset({
+    "BEAM", "JOIST", "HOLLOWCORE", "LINTEL", "SPANDREL", "T_BEAM", "GIRDER_SEGMENT", "DIAPHRAGM", "PIERCAP",
+    "HATSTONE", "CORNICE", "EDGEBEAM", "BRACE", "CHORD", "COLLAR", "MEMBER", "MULLION", "PLATE", "POST",
+    "PURLIN", "RAFTER", "STRINGER", "STRUT", "STUD", "STIFFENING_RIB", "ARCH_SEGMENT", "SUSPENSION_CABLE",
+    "SUSPENDER", "STAY_CABLE", "STRUCTURALCABLE", "TIE_BAR",
+})
+
+#: the common property sets holding LoadBearing and Span, own class first (some exporters put
+#: Pset_BeamCommon on members)
+_COMMON_PSETS = {"IfcBeam": ("Pset_BeamCommon", "Pset_MemberCommon"), "IfcMember": ("Pset_MemberCommon", "Pset_BeamCommon")}
+
+#: measure types accepted for each input kind, with the unit kind of the model they are read in;
+#: a plain number (IfcReal, ...) is read in the model's unit of the property's kind
+_MEASURES = {
+    "linear_force": {"IfcLinearForceMeasure": "linear_force"},
+    "planar_force": {"IfcPlanarForceMeasure": "planar_force", "IfcPressureMeasure": "stress"},
+    "length": {name: "length" for name in ("IfcLengthMeasure", "IfcPositiveLengthMeasure", "IfcNonNegativeLengthMeasure")},
+    "temperature": {"IfcThermodynamicTemperatureMeasure": "temperature"},
+}
+_PLAIN_NUMBERS = frozenset(
+    {"IfcReal", "IfcInteger", "IfcNumericMeasure", "IfcCountMeasure", "IfcRatioMeasure", "IfcPositiveRatioMeasure"}
+)
+_BOOLEANS = frozenset({"IfcBoolean", "IfcLogical"})
+_LABELS = frozenset({"IfcLabel", "IfcText", "IfcIdentifier"})
+
+# limits past which an input value is a modelling error, not a design case (core units)
+_ABSURD_LOAD = 1e6  # lbf/in or psi
+_ABSURD_LENGTH = 1e5  # in (over 2.5 km)
+_ABSOLUTE_ZERO_F = -459.67
+_LEVEL = 1e-6  # degrees: a slope below this is a level member (rounding of placements)
+
+
+def read_model(model: ifcopenshell.file, rules: dict) -> ReadResult:
+    """Every IfcBeam and IfcMember of ``model`` as a candidate MemberRecord or a SkippedElement.
+
+    ``rules`` is the dict of :func:`ifccheck.rules.load_rules`; its
+    ``defaults.max_bending_slope`` (degrees) separates bending members from posts and studs.
+    """
+    reader = _ModelReader(model, float(rules["defaults"]["max_bending_slope"]))
+    members, skipped = [], []
+    for element in (*model.by_type("IfcBeam"), *model.by_type("IfcMember")):
+        outcome = reader.read(element)
+        (skipped if isinstance(outcome, SkippedElement) else members).append(outcome)
+    return ReadResult(schema=model.schema_identifier, units=reader.units, members=members, skipped=skipped)
+
+
+@dataclass(frozen=True)
+class _Found:
+    """A single-value property found on the occurrence or its type."""
+
+    prop: ifcopenshell.entity_instance
+    pset: str
+    source: str  # "occurrence" or "type"
+
+
+@dataclass(frozen=True)
+class _Input:
+    """One property of the input property set as read: a usable value, or why not."""
+
+    value: object = None
+    usable: bool = False
+    note: str = ""
+    problem: str = ""
+
+
+@dataclass(frozen=True)
+class _Axis:
+    """A member's axis in world coordinates: its length (model units) and its end-to-end vector."""
+
+    length: float
+    vector: np.ndarray
+    source: str  # "axis" or "extrusion"
+
+    @property
+    def slope(self) -> float:
+        """Degrees from horizontal."""
+        horizontal = math.hypot(self.vector[0], self.vector[1])
+        slope = math.degrees(math.atan2(abs(self.vector[2]), horizontal))
+        return 0.0 if slope < _LEVEL else slope
+
+
+@dataclass(frozen=True)
+class _TypeInfo:
+    """What a type object gives all its occurrences, read once per type."""
+
+    psets: dict
+    predefined: str
+    material: tuple  # (MaterialInfo, MaterialKind, definition)
+    common: dict  # property name -> _Found or None, from its common property sets
+
+
+_NO_TYPE = _TypeInfo(psets={}, predefined="", material=(MaterialInfo(), UNKNOWN, None), common={})
+
+
+class _ModelReader:
+    """Reads elements of one model, caching per placement, type object, material, profile and pset."""
+
+    def __init__(self, model: ifcopenshell.file, max_slope: float) -> None:
+        self.model = model
+        self.units = model_units(model)
+        self.max_slope = max_slope
+        self.to_inch = self.units.to_core["length"]
+        self.ifc2x3 = model.schema == "IFC2X3"
+        self.materials = MaterialReader()
+        self.sections = SectionReader(self.to_inch)
+        self._placements: dict = {}
+        self._types: dict = {}
+        self._inputs_by_pset: dict = {}
+
+    def read(self, element):
+        try:
+            return self._read(element)
+        except Exception as exc:  # odd data of one element must not stop the whole model
+            return _unreadable(element, exc)
+
+    def _read(self, element):
+        element_type, own_psets = self._relations(element)
+        type_info = self._type_info(element_type)
+        predefined = _predefined_type(element, type_info)
+        is_beam = element.is_a("IfcBeam")
+        if not is_beam and predefined not in BENDING_MEMBER_TYPES:
+            return _skip(element, f"IfcMember of type {predefined} is not a bending member", "not_bending")
+        common = _COMMON_PSETS["IfcBeam" if is_beam else "IfcMember"]
+        load_bearing = self._common_property("LoadBearing", common, own_psets, type_info)
+        if load_bearing is not None and load_bearing.prop.NominalValue.wrappedValue is False:
+            return _skip(element, f"LoadBearing is FALSE ({load_bearing.pset} on the {load_bearing.source})", "not_load_bearing")
+        record = MemberRecord(
+            global_id=element.GlobalId,
+            name=element.Name or "",
+            ifc_class=element.is_a(),
+            predefined_type=predefined,
+            storey="",
+            material=MaterialInfo(),
+            section=None,
+        )
+        _guarded(record, "ifccheck_DesignInput", lambda: self._read_inputs(record, own_psets, type_info.psets))
+        material = _guarded(record, "material", lambda: self._material(element, type_info))
+        info, kind, definition = material or (MaterialInfo(), UNKNOWN, None)
+        record.material = _with_input_identity(info, record.inputs)
+        if record.material.kind == "non_timber":
+            return _skip(element, f"non-timber material '{info.name}' ({kind.material_kind})", "non_timber")
+        _note_material(record)
+        geometry = _guarded(record, "geometry", lambda: self._geometry(element))
+        body, object_matrix, axis = geometry or (None, None, None)
+        record.slope = axis.slope if axis is not None else 0.0
+        if record.slope > self.max_slope:
+            reason = f"axis {record.slope:.1f}° from horizontal, steeper than {self.max_slope:g}°"
+            return _skip(element, reason, "not_bending")
+        if body is not None:
+            _guarded(record, "section", lambda: self._read_section(record, definition, body, object_matrix, own_psets))
+        _guarded(record, "span", lambda: self._read_span(record, common, own_psets, type_info, axis))
+        record.storey = _guarded(record, "storey", lambda: _storey_name(element)) or ""
+        return record
+
+    # --- relations, type objects and geometry --------------------------------------------------
+
+    def _relations(self, element) -> tuple:
+        """(type object or None, property and quantity sets by name) of an occurrence, in one pass."""
+        element_type, definitions = None, []
+        for rel in getattr(element, "IsDefinedBy", None) or ():
+            kind = rel.is_a()
+            if kind == "IfcRelDefinesByProperties":
+                relating = rel.RelatingPropertyDefinition
+                definitions += list(relating) if isinstance(relating, tuple) else [relating]  # IFC4 set of sets
+            elif kind == "IfcRelDefinesByType":  # IFC2X3
+                element_type = rel.RelatingType
+        if element_type is None and not self.ifc2x3:
+            typed_by = getattr(element, "IsTypedBy", None)
+            element_type = typed_by[0].RelatingType if typed_by else None
+        return element_type, _by_name(definitions)
+
+    def _type_info(self, element_type) -> _TypeInfo:
+        if element_type is None:
+            return _NO_TYPE
+        key = element_type.id()
+        if key not in self._types:
+            psets = _by_name(element_type.HasPropertySets or ())
+            definition = ifc_element.get_material(element_type, should_inherit=False)
+            material = (*self.materials.read(definition, "type"), definition) if definition is not None else _NO_TYPE.material
+            common = {
+                (name, pset_names): _first_property(name, pset_names, psets, "type")
+                for name in ("LoadBearing", "Span")
+                for pset_names in _COMMON_PSETS.values()
+            }
+            predefined = _user_defined(getattr(element_type, "PredefinedType", None), element_type.ElementType)
+            self._types[key] = _TypeInfo(psets=psets, predefined=predefined, material=material, common=common)
+        return self._types[key]
+
+    def _common_property(self, name: str, pset_names: tuple, own_psets: dict, type_info: _TypeInfo) -> Optional[_Found]:
+        """A common property of the occurrence, else of its type."""
+        found = _first_property(name, pset_names, own_psets, "occurrence")
+        return found if found is not None else type_info.common.get((name, pset_names))
+
+    def _material(self, element, type_info: _TypeInfo) -> tuple:
+        """(MaterialInfo, MaterialKind, definition): the occurrence's own material, else its type's."""
+        definition = ifc_element.get_material(element, should_inherit=False)
+        if definition is None:
+            return type_info.material
+        return (*self.materials.read(definition, "occurrence"), definition)
+
+    def _object_matrix(self, placement) -> np.ndarray:
+        """World matrix of an IfcLocalPlacement chain (model length units), cached per placement."""
+        if placement is None:
+            return axis_matrix(None)
+        key = placement.id()
+        if key not in self._placements:
+            if not placement.is_a("IfcLocalPlacement"):
+                raise ModelReadError(f"object placement {placement.is_a()} is not supported")
+            parent = self._object_matrix(placement.PlacementRelTo)
+            self._placements[key] = placed(parent, placement.RelativePlacement.get_info(recursive=True))
+        return self._placements[key]
+
+    def _geometry(self, element) -> tuple:
+        object_matrix = self._object_matrix(element.ObjectPlacement)
+        shape = element.Representation
+        representations = shape.Representations if shape is not None else ()
+        body = body_of(representations, object_matrix)
+        return body, object_matrix, _member_axis(representations, object_matrix, body)
+
+    # --- section, span, inputs ---------------------------------------------------------------
+
+    def _read_section(self, record: MemberRecord, definition, body, object_matrix, own_psets: dict) -> None:
+        quantity_sets = {name: pset for name, pset in own_psets.items() if pset.is_a("IfcElementQuantity")}
+        reading = self.sections.read(profile_set_of(definition), body, object_matrix, quantity_sets)
+        if reading.problem:
+            record.problems.append(reading.problem)
+            return
+        section = reading.section
+        plies = record.inputs.get("Plies")
+        if plies is not None and section.plies > 1 and plies != section.plies:
+            record.problems.append(f"{INPUT_PSET}.Plies is {plies} but the model shows {section.plies} plies side by side")
+            return
+        if plies is not None and section.plies == 1 and plies > 1:
+            section = replace(section, plies=plies)
+            record.notes.append(f"built-up of {plies} plies from {INPUT_PSET}.Plies (the modelled width is their total)")
+        elif section.plies > 1:
+            record.notes.append(f"built-up of {section.plies} plies side by side in the {section.source}")
+        record.section = section
+        named = f" ('{section.profile_name}')" if section.profile_name else ""
+        size = format_section(section.width, section.depth, self.units.system)
+        record.notes.append(f"section {size} from {section.source}{named}")
+
+    def _read_span(self, record: MemberRecord, common: tuple, own_psets: dict, type_info: _TypeInfo, axis) -> None:
+        found = self._common_property("Span", common, own_psets, type_info)
+        if found is not None:
+            try:
+                record.span = self._length(found.prop)
+            except ModelReadError as exc:
+                record.problems.append(f"{found.pset}.Span on the {found.source} is not used: {exc}")
+            else:
+                record.span_source, record.span_is_clear = f"{found.pset}.Span", True
+                record.notes.append(f"span {format_length(record.span, self.units.system)} from {found.pset}.Span on the {found.source}")
+                return
+        if axis is None:
+            record.problems.append("no span found (no Span property, Axis representation or extrusion)")
+            return
+        length = axis.length * self.to_inch
+        record.span = length * math.cos(math.radians(record.slope))
+        record.span_source = axis.source
+        record.notes.append(f"span {format_length(record.span, self.units.system)} from {axis.source}")
+        if record.slope > 0:
+            record.notes.append(
+                f"span is the horizontal projection of the sloped length "
+                f"({format_length(length, self.units.system)} at {record.slope:.1f}°)"
+            )
+
+    def _length(self, prop) -> float:
+        """A positive length property in inches (its own unit, else the model's length unit)."""
+        number = _finite_number(prop.NominalValue.wrappedValue)
+        factor = property_unit_to_core(prop.Unit, "length") if prop.Unit is not None else self.to_inch
+        value = number * factor
+        if not 0 < value <= _ABSURD_LENGTH:
+            raise ModelReadError(f"{number!r} is not a positive length below {_ABSURD_LENGTH:g} in")
+        return value
+
+    def _read_inputs(self, record: MemberRecord, own_psets: dict, type_psets: dict) -> None:
+        """The input property set, occurrence over type per property, converted to core units."""
+        given = {}
+        for source, psets in (("type", type_psets), ("occurrence", own_psets)):
+            pset = psets.get(INPUT_PSET)
+            if pset is not None and pset.is_a("IfcPropertySet"):
+                given.update({name: (read, source) for name, read in self._pset_inputs(pset).items()})
+        for name, (read, source) in given.items():
+            where = f"{INPUT_PSET}.{name} on the {source}"
+            if read.problem:
+                record.problems.append(f"{where} is not used: {read.problem}")
+            elif read.note:
+                record.notes.append(f"{where} {read.note}")
+            if read.usable:
+                record.inputs[name], record.input_sources[name] = read.value, source
+
+    def _pset_inputs(self, pset) -> dict:
+        """Each property of one input property set, read once per set (sets are often shared)."""
+        key = pset.id()
+        if key not in self._inputs_by_pset:
+            self._inputs_by_pset[key] = {prop.Name: self._input(prop) for prop in pset.HasProperties or ()}
+        return self._inputs_by_pset[key]
+
+    def _input(self, prop) -> "_Input":
+        if prop.Name not in INPUT_PROPS:
+            return _Input(note="is not an input property of ifccheck; ignored")
+        if prop.is_a("IfcPropertySingleValue") and prop.NominalValue is None:
+            return _Input(note="has no value; ignored")
+        try:
+            value, note = self._input_value(prop)
+        except ModelReadError as exc:
+            return _Input(problem=str(exc))
+        return _Input(value=value, usable=True, note=note)
+
+    def _input_value(self, prop) -> tuple:
+        """(value in core units, note) of one input; ModelReadError saying why when it is invalid."""
+        if not prop.is_a("IfcPropertySingleValue"):
+            raise ModelReadError(f"it is an {prop.is_a()}; give a single value")
+        name, kind = prop.Name, INPUT_PROPS[prop.Name]
+        measure, raw = prop.NominalValue.is_a(), prop.NominalValue.wrappedValue
+        if kind == "bool":
+            if measure not in _BOOLEANS or not isinstance(raw, bool):
+                raise ModelReadError(f"{raw!r} ({measure}) is not an IfcBoolean TRUE or FALSE")
+            return raw, ""
+        if kind == "label":
+            if measure not in _LABELS or not str(raw).strip():
+                raise ModelReadError(f"{raw!r} ({measure}) is not a non-empty IfcLabel")
+            return str(raw).strip(), ""
+        number = _finite_number(raw)
+        if kind == "number":
+            if measure not in _PLAIN_NUMBERS:
+                raise ModelReadError(f"{raw!r} is an {measure}; give a plain number (IfcReal)")
+            return _checked_number(name, number), ""
+        if kind == "temperature":
+            return _checked_temperature(self._temperature_f(prop, number, measure)), ""
+        factor = self._input_factor(prop, kind, measure)
+        note = ""
+        if measure in _PLAIN_NUMBERS and prop.Unit is None:
+            note = f"is a plain {measure}; read in the model's {kind.replace('_', ' ')} unit"
+        return _checked_measure(name, kind, number * factor), note
+
+    def _input_factor(self, prop, kind: str, measure: str) -> float:
+        if measure not in _MEASURES[kind] and measure not in _PLAIN_NUMBERS:
+            expected = " or ".join(_MEASURES[kind])
+            raise ModelReadError(f"it is an {measure}; give an {expected}")
+        if prop.Unit is not None:
+            return property_unit_to_core(prop.Unit, kind)
+        return self.units.to_core[_MEASURES[kind].get(measure, kind)]
+
+    def _temperature_f(self, prop, number: float, measure: str) -> float:
+        if measure not in _MEASURES["temperature"] and measure not in _PLAIN_NUMBERS:
+            raise ModelReadError(f"it is an {measure}; give an IfcThermodynamicTemperatureMeasure")
+        unit = temperature_unit(prop.Unit) if prop.Unit is not None else model_temperature_unit(self.model)
+        return to_temperature_f(number, unit)
+
+
+# --- element-level helpers -----------------------------------------------------------------
+
+
+def _by_name(definitions) -> dict:
+    """Property and quantity sets by name (the first of a name wins)."""
+    found: dict = {}
+    for definition in definitions:
+        found.setdefault(definition.Name, definition)
+    return found
+
+
+def _first_property(name: str, pset_names: tuple, psets: dict, source: str) -> Optional[_Found]:
+    """The first single value named ``name`` that has a value, in the sets ``pset_names`` in order."""
+    for pset_name in pset_names:
+        pset = psets.get(pset_name)
+        if pset is None or not pset.is_a("IfcPropertySet"):
+            continue
+        for prop in pset.HasProperties or ():
+            if prop.Name == name and prop.is_a("IfcPropertySingleValue") and prop.NominalValue is not None:
+                return _Found(prop, pset_name, source)
+    return None
+
+
+def _user_defined(predefined, written) -> str:
+    """A USERDEFINED (or, in IFC2X3, absent) predefined type takes the type name written in
+    ObjectType / ElementType when that names a known type, e.g. JOIST on an IFC2X3 beam type."""
+    if predefined in (None, "", "USERDEFINED", "NOTDEFINED") and written:
+        name = str(written).strip().upper().replace(" ", "_")
+        if name in KNOWN_PREDEFINED_TYPES:
+            return name
+    return predefined or ""
+
+
+def _predefined_type(element, type_info: _TypeInfo) -> str:
+    """The occurrence's PredefinedType, else its type's (IFC2X3 occurrences have none), else NOTDEFINED."""
+    own = _user_defined(getattr(element, "PredefinedType", None), element.ObjectType)
+    if own and own != "NOTDEFINED":
+        return own
+    if type_info.predefined and type_info.predefined != "NOTDEFINED":
+        return type_info.predefined
+    return "NOTDEFINED"
+
+
+def _with_input_identity(info: MaterialInfo, inputs: dict) -> MaterialInfo:
+    """A Species or Grade in the input property set makes a member of unidentified material timber.
+
+    A member whose material says otherwise (steel, concrete) is kept as a candidate too, so the
+    contradiction is reported (NOT_CHECKED) instead of being resolved silently either way.
+    """
+    if info.kind == "timber":
+        return info
+    for name in ("Species", "Grade"):
+        if name in inputs:
+            return replace(info, kind="timber", matched=f"{INPUT_PSET}.{name}", contradicted=info.kind == "non_timber")
+    return info
+
+
+def _note_material(record: MemberRecord) -> None:
+    material = record.material
+    if material.kind == "unknown":
+        named = f"name '{material.name}'" if material.name else "no material assigned"
+        record.problems.append(f"material not identified ({named})")
+        return
+    if material.contradicted:
+        record.problems.append(
+            f"material '{material.name}' is not timber but {INPUT_PSET} gives a Species or Grade; fix one of them"
+        )
+    if material.name:
+        record.notes.append(f"material '{material.name}' from {material.source} (timber by '{material.matched}')")
+    else:
+        record.notes.append(f"timber by {material.matched}")
+
+
+def _member_axis(representations, object_matrix: np.ndarray, body) -> Optional[_Axis]:
+    """The member's axis from its 'Axis' representation, else from its body extrusion.
+
+    Object placements are rotations without scale, so the axis length is taken in object coordinates.
+    """
+    points = _axis_points(representations)
+    if points is not None:
+        length = sum(math.dist(a, b) for a, b in zip(points, points[1:]))
+        if length > 0:
+            chord = np.subtract(points[-1], points[0])
+            return _Axis(length, object_matrix[:3, :3] @ chord, "axis")
+    if body.extrusion is not None:
+        vector = body.extrusion.vector()
+        return _Axis(float(np.linalg.norm(vector)), vector, "extrusion")
+    return None
+
+
+#: curves of an 'Axis' representation whose points the reader follows
+_AXIS_CURVES = frozenset({"IfcPolyline", "IfcIndexedPolyCurve", "IfcTrimmedCurve"})
+
+
+def _axis_points(representations) -> Optional[list]:
+    """Points (object coordinates, 3-tuples) of the first curve of the 'Axis' representation."""
+    for representation in representations:
+        if representation.RepresentationIdentifier == "Axis" and representation.Items:
+            curve = representation.Items[0]
+            points = _curve_points(curve.get_info(recursive=True)) if curve.is_a() in _AXIS_CURVES else None
+            if points is not None and len(points) >= 2:
+                return points
+    return None
+
+
+def _curve_points(curve: dict) -> Optional[list]:
+    """Points of a curve given as a get_info dict: polyline, indexed poly curve, or a trimmed line."""
+    kind = curve["type"]
+    if kind == "IfcPolyline":
+        return [_point3(point["Coordinates"]) for point in curve["Points"]]
+    if kind == "IfcIndexedPolyCurve":
+        coordinates = curve["Points"]["CoordList"]
+        if curve["Segments"]:
+            indices = [i for segment in curve["Segments"] for i in segment["wrappedValue"]]
+            coordinates = [coordinates[i - 1] for k, i in enumerate(indices) if k == 0 or i != indices[k - 1]]
+        return [_point3(coordinate) for coordinate in coordinates]
+    if kind == "IfcTrimmedCurve" and curve["BasisCurve"]["type"] == "IfcLine":
+        return [_trim_point(curve["BasisCurve"], trims) for trims in (curve["Trim1"], curve["Trim2"])]
+    return None
+
+
+def _trim_point(line: dict, trims) -> tuple:
+    """A trimming point of a line: the cartesian point if given, else the point at the parameter."""
+    for trim in trims:
+        if trim["type"] == "IfcCartesianPoint":
+            return _point3(trim["Coordinates"])
+    parameter = next(trim["wrappedValue"] for trim in trims if trim["type"] == "IfcParameterValue")
+    start = np.array(_point3(line["Pnt"]["Coordinates"]))
+    direction = np.array(_point3(line["Dir"]["Orientation"]["DirectionRatios"]))
+    step = direction / np.linalg.norm(direction) * float(line["Dir"]["Magnitude"])
+    return tuple(start + parameter * step)
+
+
+def _point3(coordinates) -> tuple:
+    """A 2D or 3D coordinate tuple as 3D."""
+    return (*coordinates, 0.0)[:3] if len(coordinates) == 2 else tuple(coordinates)
+
+
+def _storey_name(element) -> str:
+    """Name of the IfcBuildingStorey containing the element (directly, via spaces, or via its assembly)."""
+    storey = ifc_element.get_container(element, ifc_class="IfcBuildingStorey")
+    return (storey.Name or "") if storey is not None else ""
+
+
+def _finite_number(raw) -> float:
+    if raw is None:  # how ifcopenshell reads a NaN written in the file
+        raise ModelReadError("its value is not a number (NaN or unreadable)")
+    if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+        raise ModelReadError(f"{raw!r} is not a number")
+    if not math.isfinite(raw):
+        raise ModelReadError(f"{raw!r} is not a finite number")
+    return float(raw)
+
+
+def _checked_number(name: str, number: float):
+    if name == "Plies":
+        if number != int(number) or number < 1:
+            raise ModelReadError(f"{number:g} is not a whole number of plies of 1 or more")
+        return int(number)
+    if number <= 0:
+        raise ModelReadError(f"{number:g} is not a positive n of L/n")
+    return number
+
+
+def _checked_measure(name: str, kind: str, value: float) -> float:
+    """A load or length in core units, within what a model can mean."""
+    if kind == "length":
+        if not 0 < value <= _ABSURD_LENGTH:
+            raise ModelReadError(f"{value:g} in is not a positive length below {_ABSURD_LENGTH:g} in")
+        return value
+    if value < 0 and name != "WindLoad":  # only wind may act upward (uplift)
+        raise ModelReadError(f"{value:g} is negative; only WindLoad may be negative (uplift)")
+    if abs(value) > _ABSURD_LOAD:
+        raise ModelReadError(f"{value:g} (core units) is beyond any real load ({_ABSURD_LOAD:g})")
+    return value
+
+
+def _checked_temperature(value_f: float) -> float:
+    if value_f < _ABSOLUTE_ZERO_F:
+        raise ModelReadError(f"{value_f:g} °F is below absolute zero")
+    return value_f
+
+
+def _guarded(record: MemberRecord, what: str, read):
+    """Run one reading step; when the model's data breaks it, record a problem and go on."""
+    try:
+        return read()
+    except Exception as exc:  # noqa: BLE001 - any failure on odd data becomes a stated problem
+        record.problems.append(f"{what} cannot be read ({type(exc).__name__}: {exc})")
+        return None
+
+
+def _skip(element, reason: str, category: str) -> SkippedElement:
+    return SkippedElement(
+        global_id=element.GlobalId, name=element.Name or "", ifc_class=element.is_a(), reason=reason, category=category
+    )
+
+
+def _unreadable(element, exc: Exception) -> MemberRecord:
+    return MemberRecord(
+        global_id=getattr(element, "GlobalId", "") or "",
+        name=getattr(element, "Name", "") or "",
+        ifc_class=element.is_a(),
+        predefined_type="NOTDEFINED",
+        storey="",
+        material=MaterialInfo(),
+        section=None,
+        problems=[f"element cannot be read ({type(exc).__name__}: {exc})"],
+    )
