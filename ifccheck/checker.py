@@ -92,16 +92,21 @@ def check_model(model_or_path, rules=None) -> CheckResult:
     basis = get_basis(merged["defaults"]["design_basis"])
     verdicts = basis.check(inputs, merged) if len(inputs) else pd.DataFrame(columns=VERDICT_COLUMNS)
     table = inputs.drop(columns=[c for c in verdicts.columns if c in inputs.columns]).join(verdicts)
-    table["provenance"] = [_provenance(row) for row in table.itertuples()]
+    table["provenance"] = [
+        _provenance(*row)
+        for row in zip(table["notes"], table.get("identified_from", [""] * len(table)), table["load_sources"],
+                       table["defaults_used"])
+    ]
     return CheckResult(model, table, read.skipped, read.units, read.schema, merged, owns_model=owns)
 
 
-def _provenance(row) -> str:
-    parts = list(row.notes)
-    if getattr(row, "identified_from", ""):
-        parts.append(row.identified_from)
-    if row.load_sources:
-        parts.append(f"loads from {row.load_sources}")
-    if row.defaults_used:
-        parts.append("assumed: " + "; ".join(row.defaults_used))
+def _provenance(notes: list, identified_from: str, load_sources: str, defaults_used: list) -> str:
+    """One line saying where each input came from and what was assumed."""
+    parts = list(notes)
+    if isinstance(identified_from, str) and identified_from:
+        parts.append(identified_from)
+    if load_sources:
+        parts.append(f"loads from {load_sources}")
+    if defaults_used:
+        parts.append("assumed: " + "; ".join(defaults_used))
     return " | ".join(parts)

@@ -45,16 +45,83 @@ def deflection_limits(member_use: str) -> "tuple[float, float]":
     return float(row["live_n"]), float(row["total_n"])
 
 
-@functools.lru_cache(maxsize=4096)
-def _identify(input_species, input_grade, pset_species, pset_grade, material_name) -> values.Identification:
-    return values.identify(
-        [
-            ("input Species", input_species),
-            ("input Grade", input_grade),
-            ("Pset_MaterialWood", f"{pset_species} {pset_grade}".strip()),
-            ("material name", material_name),
-        ]
-    )
+_VALUE_COLUMNS = ("Fb", "Fv", "Fc_perp", "E", "Emin", "G")
+
+
+def per_distinct(t: pd.DataFrame, columns: list, fn) -> list:
+    """``fn(*values)`` for every row, computed once per distinct combination of ``columns``."""
+    cache: dict = {}
+    out = []
+    for key in zip(*(t[c].tolist() for c in columns)):
+        if key not in cache:
+            cache[key] = fn(*key)
+        out.append(cache[key])
+    return out
+
+
+def _add_problems(problems: list, found) -> None:
+    for k, extra in enumerate(found):
+        problems[k].extend(extra)
+
+
+def _material_identity(input_species, input_grade, pset_species, pset_grade, material_name):
+    """(Identification, where it came from, problems): a Species or Grade the user gave must be
+    understood, never silently passed over for the material's."""
+    found = values.identify([
+        ("input Species", input_species),
+        ("input Grade", input_grade),
+        ("Pset_MaterialWood", f"{pset_species} {pset_grade}".strip()),
+        ("material name", material_name),
+    ])
+    trail = f"species from {found.species_from or 'nowhere'}, grade from {found.grade_from or 'nowhere'}"
+    if input_grade and not values.identify([("", input_grade)]).grade:
+        return found, trail, [f"input Grade '{input_grade}' is not an NDS grade in rules/nds2018"]
+    if input_species and not values.identify([("", input_species)]).species:
+        return found, trail, [f"input Species '{input_species}' is not an NDS species in rules/nds2018"]
+    problems = []
+    if not found.grade:
+        seen = input_grade or pset_grade or material_name
+        problems.append(f"grade not identified ('{seen}' is not an NDS grade in rules/nds2018)")
+    if not found.species:
+        seen = input_species or pset_species or material_name
+        problems.append(f"species not identified ('{seen}' is not an NDS species in rules/nds2018)")
+    return found, trail, problems
+
+
+def _nominal_section(b: float, d: float, plies: int):
+    """(nominal thickness, nominal width, label) of a section of total width b and depth d (in)."""
+    if not (np.isfinite(b) and np.isfinite(d)):
+        return np.nan, np.nan, ""
+    ply = b / plies
+    thick, t_std = values.nominal_size(min(ply, d))
+    wide, w_std = values.nominal_size(max(ply, d))
+    label = f"{int(thick)}x{int(wide)}" if ply <= d else f"{int(wide)}x{int(thick)} flat"
+    if plies > 1:
+        label = f"{plies}-{label}"
+    return thick, wide, label if (t_std and w_std) else f"non-standard (taken as {label})"
+
+
+def _reference_row(species: str, grade: str, nominal_thickness: float, nominal_width: float):
+    """(product, reference values, problem or "") for one species, grade and nominal size."""
+    if not (species and grade and np.isfinite(nominal_width)):
+        return "", {}, ""
+    product = values.product_of(nominal_thickness, nominal_width, grade)
+    try:
+        row = values.reference_values(species, grade, product, nominal_width)
+    except DesignValueLookupError as exc:
+        return product, {}, str(exc)
+    return product, {c: float(row[c]) for c in _VALUE_COLUMNS}, ""
+
+
+def _deflection_limits(member_use: str, n_live_input: float, n_total_input: float):
+    """(n_live, n_total, default used or "") from the inputs, else IBC 2018 Table 1604.3."""
+    table_live, table_total = deflection_limits(member_use)
+    live = n_live_input if np.isfinite(n_live_input) else table_live
+    total = n_total_input if np.isfinite(n_total_input) else table_total
+    if np.isfinite(n_live_input) and np.isfinite(n_total_input):
+        return live, total, ""
+    return live, total, (f"deflection limits L/{live:g} live, L/{total:g} total "
+                         f"(IBC 2018 Table 1604.3, {member_use.replace('_', ' ')})")
 
 
 class NdsBasis:
@@ -93,75 +160,30 @@ class NdsBasis:
     # -- resolving what the model says into NDS terms -------------------------------------------
 
     def _resolve_material(self, t: pd.DataFrame, problems: list) -> None:
-        ids = [
-            _identify(*key)
-            for key in zip(t["input_species"].astype(str), t["input_grade"].astype(str),
-                           t["material_species"].astype(str), t["material_grade"].astype(str),
-                           t["material_name"].astype(str))
-        ]
-        t["species"] = [i.species for i in ids]
-        t["grade"] = [i.grade for i in ids]
-        t["identified_from"] = [
-            f"species from {i.species_from or 'nowhere'}, grade from {i.grade_from or 'nowhere'}" for i in ids
-        ]
-        for k, (i, row) in enumerate(zip(ids, t.itertuples())):
-            # a Species or Grade the user gave must be understood, never silently passed over
-            if row.input_grade and not values.identify([("", row.input_grade)]).grade:
-                problems[k].append(f"input Grade '{row.input_grade}' is not an NDS grade in rules/nds2018")
-                continue
-            if row.input_species and not values.identify([("", row.input_species)]).species:
-                problems[k].append(f"input Species '{row.input_species}' is not an NDS species in rules/nds2018")
-                continue
-            if not i.grade:
-                seen = row.input_grade or row.material_grade or row.material_name
-                problems[k].append(f"grade not identified ('{seen}' is not an NDS grade in rules/nds2018)")
-            if not i.species:
-                seen = row.input_species or row.material_species or row.material_name
-                problems[k].append(f"species not identified ('{seen}' is not an NDS species in rules/nds2018)")
+        found = per_distinct(t, ["input_species", "input_grade", "material_species", "material_grade",
+                                 "material_name"], _material_identity)
+        t["species"] = [f[0].species for f in found]
+        t["grade"] = [f[0].grade for f in found]
+        t["identified_from"] = [f[1] for f in found]
+        _add_problems(problems, (f[2] for f in found))
 
     def _resolve_size(self, t: pd.DataFrame, problems: list) -> None:
-        nominal_t, nominal_w, labels = [], [], []
-        for k, row in enumerate(t.itertuples()):
-            if not (np.isfinite(row.b) and np.isfinite(row.d)):
-                nominal_t.append(np.nan)
-                nominal_w.append(np.nan)
-                labels.append("")
-                if not any("section" in p for p in problems[k]):
-                    problems[k].append("no section found")
-                continue
-            ply = row.b / row.plies
-            thick, t_std = values.nominal_size(min(ply, row.d))
-            wide, w_std = values.nominal_size(max(ply, row.d))
-            nominal_t.append(thick)
-            nominal_w.append(wide)
-            label = f"{int(thick)}x{int(wide)}" if ply <= row.d else f"{int(wide)}x{int(thick)} flat"
-            if row.plies > 1:
-                label = f"{row.plies}-{label}"
-            labels.append(label if (t_std and w_std) else f"non-standard (taken as {label})")
-        t["nominal_thickness"] = nominal_t
-        t["nominal_width"] = nominal_w
-        t["nominal"] = labels
+        found = per_distinct(t, ["b", "d", "plies"], _nominal_section)
+        t["nominal_thickness"] = [f[0] for f in found]
+        t["nominal_width"] = [f[1] for f in found]
+        t["nominal"] = [f[2] for f in found]
         t["flat"] = (t["d"] < t["b"] / t["plies"]).to_numpy()
+        missing = np.flatnonzero(~np.isfinite(t["b"].to_numpy(float) * t["d"].to_numpy(float)))
+        for k in missing:
+            if not any("section" in p for p in problems[k]):
+                problems[k].append("no section found")
 
     def _resolve_values(self, t: pd.DataFrame, problems: list) -> None:
-        cols = ["Fb", "Fv", "Fc_perp", "E", "Emin", "G"]
-        found = {c: [] for c in cols}
-        products = []
-        for k, row in enumerate(t.itertuples()):
-            product = ""
-            data = {}
-            if row.species and row.grade and np.isfinite(row.nominal_width):
-                product = values.product_of(row.nominal_thickness, row.nominal_width, row.grade)
-                try:
-                    data = values.reference_values(row.species, row.grade, product, row.nominal_width)
-                except DesignValueLookupError as exc:
-                    problems[k].append(str(exc))
-            products.append(product)
-            for c in cols:
-                found[c].append(float(data[c]) if data and np.isfinite(data[c]) else np.nan)
-        t["product"] = products
-        for c in cols:
-            t[c] = found[c]
+        found = per_distinct(t, ["species", "grade", "nominal_thickness", "nominal_width"], _reference_row)
+        t["product"] = [f[0] for f in found]
+        for c in _VALUE_COLUMNS:
+            t[c] = [f[1].get(c, np.nan) for f in found]
+        _add_problems(problems, ([f[2]] if f[2] else [] for f in found))
 
     def _design_span(self, t: pd.DataFrame, problems: list) -> None:
         # NDS 3.2.1: design span = clear span + 1/2 bearing length at each end; a member's length is
@@ -186,18 +208,10 @@ class NdsBasis:
         t["self_weight"] = np.where(add, weight, 0.0)
 
     def _deflection_limits(self, t: pd.DataFrame, used: list) -> None:
-        n_live, n_total = [], []
-        for k, row in enumerate(t.itertuples()):
-            table_live, table_total = deflection_limits(row.member_use)
-            live = row.n_live_input if np.isfinite(row.n_live_input) else table_live
-            total = row.n_total_input if np.isfinite(row.n_total_input) else table_total
-            if not (np.isfinite(row.n_live_input) and np.isfinite(row.n_total_input)):
-                used[k].append(f"deflection limits L/{live:g} live, L/{total:g} total "
-                               f"(IBC 2018 Table 1604.3, {row.member_use.replace('_', ' ')})")
-            n_live.append(live)
-            n_total.append(total)
-        t["n_live"] = n_live
-        t["n_total"] = n_total
+        found = per_distinct(t, ["member_use", "n_live_input", "n_total_input"], _deflection_limits)
+        t["n_live"] = [f[0] for f in found]
+        t["n_total"] = [f[1] for f in found]
+        _add_problems(used, ([f[2]] if f[2] else [] for f in found))
 
     def _capacity(self, t: pd.DataFrame, rules: dict, problems: list) -> SectionCapacity:
         product = t["product"].to_numpy(str)
@@ -289,24 +303,22 @@ class NdsBasis:
         out.loc[out.index[idx], "slender"] = r["too_slender"][rows, b]
 
     def _verdicts(self, out: pd.DataFrame, ok: np.ndarray, problems: list, used: list) -> None:
-        status, reason = [], []
-        for k, row in enumerate(out.itertuples()):
+        util = out[_UTIL_COLUMNS].to_numpy(float)
+        fails = ok & (np.nan_to_num(util, nan=0.0) > 1.0).any(axis=1)
+        out["status"] = np.where(~ok, "NOT_CHECKED", np.where(fails, "FAIL", "PASS"))
+        combos = out[_COMB_COLUMNS].to_numpy(object)
+        slender = out["slender"].fillna(False).to_numpy(bool) if "slender" in out else np.zeros(len(out), bool)
+        governing = out["governing_check"].to_numpy(object)
+        reasons = []
+        for k in range(len(out)):
             assumed = ("; assumed: " + "; ".join(used[k])) if used[k] else ""
             if not ok[k]:
-                status.append("NOT_CHECKED")
-                reason.append("; ".join(problems[k]) + assumed)
-                continue
-            failing = [
-                f"{check} {getattr(row, u):.2f} under {getattr(row, c)}"
-                for check, u, c in zip(CHECKS, _UTIL_COLUMNS, _COMB_COLUMNS)
-                if getattr(row, u) > 1.0
-            ]
-            if failing:
-                slender = " (RB above 50, NDS 3.3.3.7: brace the compression edge)" if getattr(row, "slender", False) else ""
-                status.append("FAIL")
-                reason.append("fails " + ", ".join(failing) + slender + assumed)
+                reasons.append("; ".join(problems[k]) + assumed)
+            elif fails[k]:
+                failing = ", ".join(f"{check} {u:.2f} under {c}"
+                                    for check, u, c in zip(CHECKS, util[k], combos[k]) if u > 1.0)
+                brace = " (RB above 50, NDS 3.3.3.7: brace the compression edge)" if slender[k] else ""
+                reasons.append(f"fails {failing}{brace}{assumed}")
             else:
-                status.append("PASS")
-                reason.append(f"all checks pass, governing {row.governing_check} {row.max_util:.2f}" + assumed)
-        out["status"] = status
-        out["reason"] = reason
+                reasons.append(f"all checks pass, governing {governing[k]} {util[k].max():.2f}{assumed}")
+        out["reason"] = reasons
