@@ -76,6 +76,49 @@ class MaterialInfo:
     contradicted: bool = False
 
 
+@dataclass(frozen=True)
+class SupportRecord:
+    """A support of a member found in the model's structural-analysis data (core units).
+
+    ``x`` runs along the member from its start (inches); ``kind`` is pinned, roller or fixed;
+    ``width`` is the bearing length along the member (NaN: use the design inputs' bearing length).
+    """
+
+    x: float
+    kind: str = "pinned"
+    width: float = float("nan")
+    source: str = ""
+
+
+@dataclass(frozen=True)
+class LoadRecord:
+    """A load on a member from the model's structural-analysis data (core units, gravity positive).
+
+    ``kind``: "uniform" (``value`` lbf/in from ``a`` to ``b``), "linear" (``value`` at ``a`` to
+    ``value_end`` at ``b``, lbf/in), "point" (``value`` lbf at ``a``) or "moment" (``value`` lbf·in
+    at ``a``, clockwise positive). Positions in inches from the member's start.
+    """
+
+    load_type: str  # one of LOAD_TYPES
+    kind: str
+    value: float
+    a: float
+    b: float = float("nan")
+    value_end: float = float("nan")
+    source: str = ""
+
+
+@dataclass
+class AnalysisInput:
+    """What the structural-analysis data says about one physical member (core units)."""
+
+    length: float  # analysis member length along the member, in
+    supports: list = field(default_factory=list)  # list[SupportRecord]
+    loads: list = field(default_factory=list)  # list[LoadRecord]
+    notes: list = field(default_factory=list)
+    problems: list = field(default_factory=list)
+
+
 @dataclass
 class MemberRecord:
     """One candidate bending member read from the model (core units)."""
@@ -102,6 +145,8 @@ class MemberRecord:
     notes: list = field(default_factory=list)
     #: reasons found while reading that prevent a check (lead to NOT_CHECKED)
     problems: list = field(default_factory=list)
+    #: supports and loads from the model's structural-analysis data, when it has any for this member
+    analysis: Optional[AnalysisInput] = None
 
 
 @dataclass(frozen=True)

@@ -79,6 +79,12 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
         used: list = []
         problems = list(r.problems)
         loads, load_sources, load_problems = superimposed_loads(r)
+        analysis = r.analysis if (r.analysis is not None and r.analysis.supports) else None
+        if analysis is not None:
+            problems += analysis.problems
+            if analysis.loads:
+                superseded = " (ifccheck_DesignInput loads not used)" if load_sources else ""
+                load_sources, load_problems = [f"structural-analysis data{superseded}"], []
         problems += load_problems
         if not load_sources:
             problems.append("no loads found (no ifccheck_DesignInput loads)")
@@ -130,7 +136,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                 "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
                 "defaults_used": used,
                 "problems": problems,
-                "notes": list(r.notes),
+                "notes": list(r.notes) + (analysis.notes if analysis is not None else []),
+                "analysis": analysis,
             }
         )
     return pd.DataFrame(rows, columns=_COLUMNS)
@@ -141,5 +148,5 @@ _COLUMNS = [
     "plies", "material_name", "material_category", "material_species", "material_grade", "input_species",
     "input_grade", "span_read", "span_is_clear", "span_source", "slope", *LOAD_COLUMNS, "load_sources",
     "self_weight_included", "bearing_length", "wet", "temperature_F", "incised", "braced", "unbraced_length",
-    "repetitive", "member_use", "n_live_input", "n_total_input", "defaults_used", "problems", "notes",
+    "repetitive", "member_use", "n_live_input", "n_total_input", "defaults_used", "problems", "notes", "analysis",
 ]

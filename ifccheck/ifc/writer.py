@@ -91,12 +91,32 @@ def _owner_history(model: ifcopenshell.file):
 
 
 def write_verdicts(model: ifcopenshell.file, table, units: ModelUnits, checked_with: str) -> int:
-    """Attach one ifccheck_Verdict set to every member of ``table`` (core units); returns the count."""
+    """Attach one ifccheck_Verdict set to every member of ``table`` (core units); returns the count.
+
+    Members whose verdicts are identical in every property (a run of equal joists) share one
+    property set through one relation, which IFC allows and which keeps large models small.
+    """
     remove_verdicts(model)
     factory = _PropertyFactory(model)
     history = _owner_history(model)
+    groups: dict = {}
+    for element, props in _verdict_properties(model, table, units, checked_with, factory):
+        groups.setdefault(tuple(p.id() for p in props), (props, []))[1].append(element)
+    for props, elements in groups.values():
+        pset = model.create_entity(
+            "IfcPropertySet", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history, Name=VERDICT_PSET,
+            HasProperties=props,
+        )
+        model.create_entity(
+            "IfcRelDefinesByProperties", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history,
+            RelatedObjects=elements, RelatingPropertyDefinition=pset,
+        )
+    return sum(len(elements) for _, elements in groups.values())
+
+
+def _verdict_properties(model, table, units: ModelUnits, checked_with: str, factory):
+    """(element, properties) of every row, values converted to the model's units."""
     scale = {kind: 1.0 / units.to_core[kind] for kind in ("length", "area", "section_modulus", "moment_of_inertia")}
-    count = 0
     columns = {c: table[c].to_numpy() for c in table.columns}
     for k, guid in enumerate(columns["global_id"]):
         element = _by_guid(model, guid)
@@ -110,16 +130,7 @@ def write_verdicts(model: ifcopenshell.file, table, units: ModelUnits, checked_w
                 value = value * scale[kind] if kind else value
                 props.append(factory.single(name, ifc_type, round(value, 6 if kind is None else 9)))
         props.append(factory.single("CheckedWith", "IfcLabel", checked_with))
-        pset = model.create_entity(
-            "IfcPropertySet", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history, Name=VERDICT_PSET,
-            HasProperties=props,
-        )
-        model.create_entity(
-            "IfcRelDefinesByProperties", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history,
-            RelatedObjects=[element], RelatingPropertyDefinition=pset,
-        )
-        count += 1
-    return count
+        yield element, props
 
 
 def _by_guid(model: ifcopenshell.file, guid: str):

@@ -17,6 +17,7 @@ from ...rules import read_table
 from ..inputs import LOAD_COLUMNS
 from . import factors, values
 from .checks import CHECKS, SectionCapacity, allowable_span, evaluate
+from .general import analysed_checks
 
 _UTIL_COLUMNS = ["util_bending", "util_shear", "util_deflection_live", "util_deflection_total", "util_bearing"]
 _COMB_COLUMNS = [c.replace("util_", "comb_") for c in _UTIL_COLUMNS]
@@ -45,7 +46,7 @@ def deflection_limits(member_use: str) -> "tuple[float, float]":
     return float(row["live_n"]), float(row["total_n"])
 
 
-_VALUE_COLUMNS = ("Fb", "Fv", "Fc_perp", "E", "Emin", "G")
+_VALUE_COLUMNS = ("Fb", "Fb_neg", "Fv", "Fc_perp", "E", "Emin", "G")
 
 
 def per_distinct(t: pd.DataFrame, columns: list, fn) -> list:
@@ -150,8 +151,11 @@ class NdsBasis:
         for column in _UTIL_COLUMNS + ["max_util", "required_A", "required_S", "required_I", "allowable_span",
                                        "C_D", "C_L", "C_F", "C_r", "C_M_b", "F_b_prime", "f_b", "F_v_prime", "f_v"]:
             out[column] = np.nan
-        for column in _COMB_COLUMNS + ["governing_check", "governing_combination"]:
+        for column in ("governing_location", "uplift_force", "support_count", "effective_length"):
+            out[column] = np.nan
+        for column in _COMB_COLUMNS + ["governing_check", "governing_combination", "bending_edge"]:
             out[column] = ""
+        out["slender"] = False
         if ok.any():
             self._run_checks(t, out, cap, ok)
         self._verdicts(out, ok, problems, used)
@@ -229,6 +233,7 @@ class NdsBasis:
         C_F = np.where(dimension & ~southern_pine, factors.C_F_dimension(nom_t, nom_w, "Fb"), 1.0)
         C_F = np.where(np.isin(product, ["beams_stringers", "posts_timbers"]), factors.C_F_timber(d), C_F)
         Fb = t["Fb"].to_numpy(float)
+        Fb_neg = t["Fb_neg"].to_numpy(float)  # glulam Fbx− (NDS Supplement Table 5A)
         C_M_b = factors.C_M(product, "Fb", wet, Fb * C_F)
         C_r = np.where(dimension, factors.C_r(t["repetitive"].to_numpy(bool) | (t["plies"].to_numpy() >= 3)), 1.0)
         C_fu = np.where(dimension, factors.C_fu(nom_t, nom_w, t["flat"].to_numpy(bool)), 1.0)
@@ -249,6 +254,7 @@ class NdsBasis:
             d=d,
             bearing_length=lb,
             F_b_star_noCD=Fb * C_M_b * C_t["Fb"] * C_F * C_i["Fb"] * C_r,
+            F_b_star_neg_noCD=np.where(np.isfinite(Fb_neg), Fb_neg, Fb) * C_M_b * C_t["Fb"] * C_F * C_i["Fb"] * C_r,
             C_fu=C_fu,
             glulam=product == "glulam",
             volume_x=np.where(southern_pine, 20.0, 10.0),
@@ -267,47 +273,72 @@ class NdsBasis:
     # -- running the checks -------------------------------------------------------------------
 
     def _run_checks(self, t: pd.DataFrame, out: pd.DataFrame, cap: SectionCapacity, ok: np.ndarray) -> None:
-        sub = SectionCapacity(**{
-            name: (value[ok] if isinstance(value, np.ndarray) else value) for name, value in vars(cap).items()
-        })
         combos, names = combinations()
         cd = cd_by_load_type()
-        loads = t[LOAD_COLUMNS].to_numpy(float)[ok]
-        L = t["design_span"].to_numpy(float)[ok]
-        r = evaluate(L, loads, combos, cd, sub)
+        has_analysis = t["analysis"].notna().to_numpy() if "analysis" in t else np.zeros(len(t), bool)
+        closed = ok & ~has_analysis
+        if closed.any():
+            sub = cap.subset(closed)
+            loads = t[LOAD_COLUMNS].to_numpy(float)[closed]
+            r = evaluate(t["design_span"].to_numpy(float)[closed], loads, combos, cd, sub)
+            self._record(t, out, closed, r, names, sub, support_count=2)
+            out.loc[out.index[closed], "allowable_span"] = allowable_span(loads, combos, cd, sub)
+        analysed = ok & has_analysis
+        if analysed.any():
+            sub = cap.subset(analysed)
+            r, support_count, longest_span = analysed_checks(t[analysed], combos, names, cd, sub)
+            self._record(t, out, analysed, r, names, sub, support_count)
+            out.loc[out.index[analysed], "design_span"] = longest_span
+
+    def _record(self, t, out, mask, r, names, sub: SectionCapacity, support_count) -> None:
+        """Write the governing utilizations, combinations, location and calculation trail of ``mask`` rows."""
         util = r["util"]  # (5, n, m)
+        dem = r["demands"]
         gov_comb = util.argmax(axis=2)  # (5, n)
         gov_util = np.take_along_axis(util, gov_comb[:, :, None], axis=2)[:, :, 0]
-        idx = np.flatnonzero(ok)
-        rows = np.arange(len(idx))
+        rows = np.arange(util.shape[1])
+        names = np.array(names, dtype=object)
+        at = out.index[mask]
         for j, (u_col, c_col) in enumerate(zip(_UTIL_COLUMNS, _COMB_COLUMNS)):
-            out.loc[out.index[idx], u_col] = gov_util[j]
-            out.loc[out.index[idx], c_col] = np.array(names, dtype=object)[gov_comb[j]]
+            out.loc[at, u_col] = gov_util[j]
+            out.loc[at, c_col] = names[gov_comb[j]]
         gov_check = gov_util.argmax(axis=0)
-        out.loc[out.index[idx], "max_util"] = gov_util.max(axis=0)
-        out.loc[out.index[idx], "governing_check"] = np.array(CHECKS, dtype=object)[gov_check]
-        out.loc[out.index[idx], "governing_combination"] = np.array(names, dtype=object)[gov_comb[gov_check, rows]]
+        gov = gov_comb[gov_check, rows]
+        positions = np.stack([r["x_bending"], dem.x_V, dem.x_deflection_live, dem.x_deflection_total, dem.x_bearing])
+        out.loc[at, "max_util"] = gov_util.max(axis=0)
+        out.loc[at, "governing_check"] = np.array(CHECKS, dtype=object)[gov_check]
+        out.loc[at, "governing_combination"] = names[gov]
+        out.loc[at, "governing_location"] = positions[gov_check, rows, gov]
+        # uplift, a negative reaction under any combination, fails on its own (UPLIFT)
+        up_comb = dem.uplift.argmin(axis=1)
+        uplift = dem.uplift[rows, up_comb]
+        lifted = uplift < -1e-6 * np.maximum(np.abs(dem.R).max(axis=1), 1.0)
+        out.loc[at, "uplift_force"] = np.where(lifted, -uplift, 0.0)
+        out.loc[at[lifted], "governing_check"] = "UPLIFT"
+        out.loc[at[lifted], "governing_combination"] = names[up_comb[lifted]]
+        out.loc[at[lifted], "governing_location"] = dem.x_uplift[rows, up_comb][lifted]
+        out.loc[at, "support_count"] = support_count
         # required properties for the governing case: demand / capacity scales the provided property
-        deflection = np.maximum(gov_util[2], gov_util[3])
-        out.loc[out.index[idx], "required_A"] = gov_util[1] * sub.A
-        out.loc[out.index[idx], "required_S"] = gov_util[0] * sub.S
-        out.loc[out.index[idx], "required_I"] = deflection * sub.I
+        out.loc[at, "required_A"] = gov_util[1] * sub.A
+        out.loc[at, "required_S"] = gov_util[0] * sub.S
+        out.loc[at, "required_I"] = np.maximum(gov_util[2], gov_util[3]) * sub.I
         b = gov_comb[0]
-        for column, key in (("C_D", "CD"), ("C_L", "C_L"), ("F_b_prime", "F_b_prime"), ("f_b", "f_b")):
-            out.loc[out.index[idx], column] = r[key][rows, b]
-        out.loc[out.index[idx], "F_v_prime"] = r["F_v_prime"][rows, gov_comb[1]]
-        out.loc[out.index[idx], "f_v"] = r["f_v"][rows, gov_comb[1]]
+        for column, key in (("C_D", "CD"), ("C_L", "C_L"), ("F_b_prime", "F_b_prime"), ("f_b", "f_b"),
+                            ("bending_edge", "bending_edge"), ("effective_length", "le_bending"),
+                            ("slender", "too_slender")):
+            out.loc[at, column] = r[key][rows, b]
+        out.loc[at, "F_v_prime"] = r["F_v_prime"][rows, gov_comb[1]]
+        out.loc[at, "f_v"] = r["f_v"][rows, gov_comb[1]]
         for column in ("C_F", "C_r", "C_M_b"):
-            out.loc[out.index[idx], column] = t[column].to_numpy(float)[ok]
-        out.loc[out.index[idx], "allowable_span"] = allowable_span(loads, combos, cd, sub)
-        out.loc[out.index[idx], "slender"] = r["too_slender"][rows, b]
+            out.loc[at, column] = t[column].to_numpy(float)[mask]
 
     def _verdicts(self, out: pd.DataFrame, ok: np.ndarray, problems: list, used: list) -> None:
         util = out[_UTIL_COLUMNS].to_numpy(float)
-        fails = ok & (np.nan_to_num(util, nan=0.0) > 1.0).any(axis=1)
+        uplift = out["uplift_force"].fillna(0.0).to_numpy(float)
+        fails = ok & ((np.nan_to_num(util, nan=0.0) > 1.0).any(axis=1) | (uplift > 0))
         out["status"] = np.where(~ok, "NOT_CHECKED", np.where(fails, "FAIL", "PASS"))
         combos = out[_COMB_COLUMNS].to_numpy(object)
-        slender = out["slender"].fillna(False).to_numpy(bool) if "slender" in out else np.zeros(len(out), bool)
+        slender = out["slender"].to_numpy(bool)
         governing = out["governing_check"].to_numpy(object)
         reasons = []
         for k in range(len(out)):
@@ -315,8 +346,11 @@ class NdsBasis:
             if not ok[k]:
                 reasons.append("; ".join(problems[k]) + assumed)
             elif fails[k]:
-                failing = ", ".join(f"{check} {u:.2f} under {c}"
-                                    for check, u, c in zip(CHECKS, util[k], combos[k]) if u > 1.0)
+                failing = [f"{check} {u:.2f} under {c}" for check, u, c in zip(CHECKS, util[k], combos[k]) if u > 1.0]
+                if uplift[k] > 0:
+                    failing.append(f"UPLIFT {uplift[k]:.0f} lbf under {out['governing_combination'].iat[k]} "
+                                   "(hold the member down)")
+                failing = ", ".join(failing)
                 brace = " (RB above 50, NDS 3.3.3.7: brace the compression edge)" if slender[k] else ""
                 reasons.append(f"fails {failing}{brace}{assumed}")
             else:

@@ -30,6 +30,7 @@ class SectionCapacity:
     d: np.ndarray  # depth in the bending plane, in
     bearing_length: np.ndarray  # lb at each support, in
     F_b_star_noCD: np.ndarray  # Fb·CM·Ct·CF·Ci·Cr (Fb* of NDS 3.3.3.8 without CD), psi
+    F_b_star_neg_noCD: np.ndarray  # the same for negative moment (glulam Fbx−; sawn lumber as above)
     C_fu: np.ndarray
     glulam: np.ndarray  # bool: the volume factor applies instead of CL where smaller (NDS 5.3.6)
     volume_x: np.ndarray  # exponent x of the volume factor (10, or 20 for Southern Pine)
@@ -43,6 +44,12 @@ class SectionCapacity:
     n_live: np.ndarray  # n of L/n for live-type loads
     n_total: np.ndarray  # n of L/n for long-term plus live deflection
     shear_section: str = "support_face"  # or "support_centre", "d_from_face" (NDS 3.4.3.1)
+
+    def subset(self, mask: np.ndarray) -> "SectionCapacity":
+        """The capacities of the members selected by a boolean mask."""
+        return SectionCapacity(**{
+            name: (value[mask] if isinstance(value, np.ndarray) else value) for name, value in vars(self).items()
+        })
 
     @property
     def A(self):
@@ -67,93 +74,144 @@ def load_duration_factors(loads: np.ndarray, combos: np.ndarray, cd_by_type: np.
     return np.max(np.where(carried, cd_by_type[None, None, :], 0.0), axis=2)
 
 
+def shear_offset(cap: SectionCapacity) -> np.ndarray:
+    """Distance from a support's centreline to the section where shear is taken (in)."""
+    if cap.shear_section == "support_centre":
+        return np.zeros_like(cap.d)
+    if cap.shear_section == "d_from_face":
+        return cap.bearing_length / 2.0 + cap.d  # NDS 3.4.3.1(a): load within d of the face ignored
+    return cap.bearing_length / 2.0
+
+
 def shear_arm(L: np.ndarray, cap: SectionCapacity) -> np.ndarray:
     """Distance from the shear section to midspan, so that V = w·arm for a uniform load (in)."""
-    if cap.shear_section == "support_centre":
-        return L / 2.0
-    face = L / 2.0 - cap.bearing_length / 2.0
-    if cap.shear_section == "d_from_face":
-        return np.maximum(face - cap.d, 0.0)  # NDS 3.4.3.1(a): load within d of the face ignored
-    return np.maximum(face, 0.0)
+    return np.maximum(L / 2.0 - shear_offset(cap), 0.0)
 
 
-def beam_stability(L: np.ndarray, w: np.ndarray, CD: np.ndarray, cap: SectionCapacity):
-    """NDS 3.3.3: CL per member and combination, and whether RB exceeds 50 (not permitted).
+@dataclass
+class Demands:
+    """Load effects per member and combination (arrays (n, m)), from closed-form formulas or from
+    the beam analysis; positions ``x_*`` in inches from the member's start.
 
-    Under net uplift (w < 0) the bottom edge is in compression and taken as unbraced over the span.
+    ``le_pos`` / ``le_neg``: effective unbraced length (NDS Table 3.3.3) of the edge in compression
+    under positive / negative moment, NaN where that edge is held (CL = 1.0). ``bearing``: the
+    largest bearing utilization over the supports (CD does not apply to Fc⊥). ``deflection_live``
+    and ``deflection_total``: deflection over its allowed value, largest over spans and cantilevers.
+    ``uplift``: the smallest reaction (negative = uplift), lbf.
     """
-    lu = np.where(np.isnan(cap.unbraced_length), L, cap.unbraced_length)
-    le = factors.effective_length(lu, cap.d, "single_span_uniform")  # NDS Table 3.3.3
-    RB = factors.R_B(le, cap.d, cap.b)
-    F_bE = factors.F_bE(cap.E_min_prime, RB)[:, None]
-    C_L = factors.C_L(F_bE, cap.F_b_star_noCD[:, None] * CD)
-    held = (cap.braced[:, None] & (w >= 0)) | (cap.d <= cap.b)[:, None]  # NDS 3.3.3.1-3.3.3.3
-    C_L = np.where(held, 1.0, C_L)
-    too_slender = ~held & (RB[:, None] > 50.0)  # NDS 3.3.3.7
-    return C_L, too_slender
+
+    M_pos: np.ndarray
+    x_pos: np.ndarray
+    le_pos: np.ndarray
+    M_neg: np.ndarray
+    x_neg: np.ndarray
+    le_neg: np.ndarray
+    V: np.ndarray
+    x_V: np.ndarray
+    R: np.ndarray
+    bearing: np.ndarray
+    x_bearing: np.ndarray
+    deflection_live: np.ndarray
+    x_deflection_live: np.ndarray
+    deflection_total: np.ndarray
+    x_deflection_total: np.ndarray
+    uplift: np.ndarray
+    x_uplift: np.ndarray
+    zero_moment_length: np.ndarray  # length between points of zero moment for CV (n, m), in
 
 
-def evaluate(L: np.ndarray, loads: np.ndarray, combos: np.ndarray, cd_by_type: np.ndarray, cap: SectionCapacity) -> dict:
-    """All checks of a simple span L (in) under uniform line loads ``loads`` (n, 5) lbf/in.
+def beam_stability(le: np.ndarray, F_b_star: np.ndarray, cap: SectionCapacity):
+    """NDS 3.3.3: CL per member and combination from the effective length le (n, m; NaN = edge held),
+    and whether RB exceeds 50 (not permitted, NDS 3.3.3.7)."""
+    held = np.isnan(le) | (cap.d <= cap.b)[:, None]  # NDS 3.3.3.1-3.3.3.3
+    RB = factors.R_B(np.where(held, 1.0, le), cap.d[:, None], cap.b[:, None])
+    C_L = factors.C_L(factors.F_bE(cap.E_min_prime[:, None], RB), F_b_star)
+    return np.where(held, 1.0, C_L), ~held & (RB > 50.0)
 
-    Returns arrays: per-combination utilizations ``util`` (5 checks, n, m) and the governing
-    combination's stresses, factors and demands for the calculation trail.
-    """
-    w = loads @ combos.T  # (n, m) combined line load
-    CD = load_duration_factors(loads, combos, cd_by_type)
-    L2 = L[:, None]
 
-    # bending, NDS 3.3: fb = M/S ≤ F'b = Fb·CD·CM·Ct·CL·CF·Cfu·Ci·Cr (min(CL, CV) for glulam)
-    M = np.abs(w) * L2**2 / 8.0
-    f_b = M / cap.S[:, None]
-    C_L, too_slender = beam_stability(L, w, CD, cap)
-    C_V = factors.C_V(L / 12.0, cap.d, cap.b, cap.volume_x)[:, None]
-    C_L_or_V = np.where(cap.glulam[:, None], np.minimum(C_L, C_V), C_L)  # NDS 5.3.6: not cumulative
-    F_b_prime = cap.F_b_star_noCD[:, None] * CD * cap.C_fu[:, None] * C_L_or_V
+def utilizations(dem: Demands, CD: np.ndarray, cap: SectionCapacity) -> dict:
+    """NDS 2018 ASD checks of given demands: utilizations ``util`` (5 checks, n, m) with the
+    stresses and factors of the calculation trail. CD (n, m) per member and combination."""
+    S = cap.S[:, None]
+    C_V = factors.C_V(dem.zero_moment_length / 12.0, cap.d[:, None], cap.b[:, None], cap.volume_x[:, None])
 
-    # shear, NDS 3.4.2: fv = 3V/(2bd) ≤ F'v
-    V = np.abs(w) * shear_arm(L, cap)[:, None]
-    f_v = 1.5 * V / cap.A[:, None]
+    def bending(M, le, F_b_star_noCD):
+        # NDS 3.3: fb = M/S ≤ F'b = Fb·CD·CM·Ct·CL·CF·Cfu·Ci·Cr; glulam: min(CL, CV) (NDS 5.3.6)
+        F_b_star = F_b_star_noCD[:, None] * CD
+        C_L, slender = beam_stability(le, F_b_star, cap)
+        C_L_or_V = np.where(cap.glulam[:, None], np.minimum(C_L, C_V), C_L)
+        F_b_prime = F_b_star * cap.C_fu[:, None] * C_L_or_V
+        return M / S, F_b_prime, C_L, slender
+
+    f_pos, F_pos, CL_pos, slender_pos = bending(dem.M_pos, dem.le_pos, cap.F_b_star_noCD)
+    f_neg, F_neg, CL_neg, slender_neg = bending(dem.M_neg, dem.le_neg, cap.F_b_star_neg_noCD)
+    u_pos = np.where(slender_pos & (dem.M_pos > 0), np.inf, f_pos / F_pos)
+    u_neg = np.where(slender_neg & (dem.M_neg > 0), np.inf, f_neg / F_neg)
+    negative = u_neg > u_pos
+    f_v = 1.5 * dem.V / cap.A[:, None]  # NDS 3.4.2: fv = 3V/(2bd)
     F_v_prime = cap.F_v_noCD[:, None] * CD
+    util = np.stack([np.maximum(u_pos, u_neg), f_v / F_v_prime, dem.deflection_live, dem.deflection_total,
+                     dem.bearing])
+    pick = lambda a, b: np.where(negative, b, a)  # noqa: E731 - the edge that governs bending
+    return {
+        "util": util,
+        "CD": CD,
+        "C_L": pick(CL_pos, CL_neg),
+        "too_slender": pick(slender_pos, slender_neg),
+        "bending_edge": np.where(negative, "bottom", "top"),
+        "x_bending": pick(dem.x_pos, dem.x_neg),
+        "le_bending": pick(dem.le_pos, dem.le_neg),
+        "f_b": pick(f_pos, f_neg),
+        "F_b_prime": pick(F_pos, F_neg),
+        "f_v": f_v,
+        "F_v_prime": F_v_prime,
+        "uplift": dem.uplift,
+    }
 
-    # bearing, NDS 3.10.2: fc⊥ = R/(b·lb) ≤ F'c⊥ (downward reactions)
-    R = np.maximum(w, 0.0) * L2 / 2.0
-    f_c_perp = R / (cap.b * cap.bearing_length)[:, None]
 
+def closed_form_demands(L: np.ndarray, loads: np.ndarray, combos: np.ndarray, cap: SectionCapacity) -> Demands:
+    """Demands on simple spans L (in) under uniform line loads ``loads`` (n, 5) lbf/in; the member's
+    start is taken at the outer edge of its first bearing (support centre at lb/2)."""
+    w = loads @ combos.T  # (n, m) combined line load
+    L2 = L[:, None]
+    lb = cap.bearing_length[:, None]
+    shape = w.shape
+    M = w * L2**2 / 8.0  # common practice: M = wL²/8
+    # the top edge is in compression under downward load; under net uplift the bottom edge, unbraced
+    lu = np.where(np.isnan(cap.unbraced_length), L, cap.unbraced_length)
+    le = np.broadcast_to(factors.effective_length(lu, cap.d, "single_span_uniform")[:, None], shape)  # NDS Table 3.3.3
+    le_top = np.where(cap.braced[:, None], np.nan, le)
+    le_bottom = np.broadcast_to(factors.effective_length(L, cap.d, "single_span_uniform")[:, None], shape)
+    midspan = np.broadcast_to(lb / 2.0 + L2 / 2.0, shape)
+    R = w * L2 / 2.0
     # deflection, NDS 3.5: Δ = 5wL⁴/(384 E'I); long-term ΔT = Kcr·ΔLT + ΔST (NDS 3.5.2)
     unit_deflection = (5.0 * L**4 / (384.0 * cap.E_prime * cap.I))[:, None]
     live = loads[:, _LIVE_TYPES] @ combos[:, _LIVE_TYPES].T
     dead = loads[:, [_DEAD]] * combos[None, :, _DEAD]
-    delta_live = unit_deflection * np.abs(live)
-    delta_total = unit_deflection * np.abs(cap.K_cr[:, None] * dead + live)
-
-    util = np.stack(
-        [
-            np.where(too_slender, np.inf, f_b / F_b_prime),
-            f_v / F_v_prime,
-            delta_live / (L2 / cap.n_live[:, None]),
-            delta_total / (L2 / cap.n_total[:, None]),
-            f_c_perp / cap.F_c_perp_prime[:, None],
-        ]
+    return Demands(
+        M_pos=np.maximum(M, 0.0), x_pos=midspan, le_pos=le_top,
+        M_neg=np.maximum(-M, 0.0), x_neg=midspan, le_neg=le_bottom,
+        V=np.abs(w) * shear_arm(L, cap)[:, None],
+        x_V=np.broadcast_to(lb / 2.0 + shear_offset(cap)[:, None], shape),
+        R=np.maximum(R, 0.0),
+        bearing=np.maximum(R, 0.0) / (cap.b * cap.bearing_length * cap.F_c_perp_prime)[:, None],  # NDS 3.10.2
+        x_bearing=np.broadcast_to(lb / 2.0, shape),
+        deflection_live=unit_deflection * np.abs(live) / (L2 / cap.n_live[:, None]),
+        x_deflection_live=midspan,
+        deflection_total=unit_deflection * np.abs(cap.K_cr[:, None] * dead + live) / (L2 / cap.n_total[:, None]),
+        x_deflection_total=midspan,
+        uplift=np.minimum(R, 0.0),
+        x_uplift=np.broadcast_to(lb / 2.0, shape),
+        zero_moment_length=np.broadcast_to(L2, shape),
     )
-    return {
-        "util": util,
-        "w": w,
-        "CD": CD,
-        "C_L": C_L,
-        "C_L_or_V": C_L_or_V,
-        "too_slender": too_slender,
-        "M": M,
-        "V": V,
-        "R": R,
-        "f_b": f_b,
-        "F_b_prime": F_b_prime,
-        "f_v": f_v,
-        "F_v_prime": F_v_prime,
-        "f_c_perp": f_c_perp,
-        "delta_live": delta_live,
-        "delta_total": delta_total,
-    }
+
+
+def evaluate(L: np.ndarray, loads: np.ndarray, combos: np.ndarray, cd_by_type: np.ndarray, cap: SectionCapacity) -> dict:
+    """All checks of simple spans L (in) under uniform line loads ``loads`` (n, 5) lbf/in."""
+    dem = closed_form_demands(L, loads, combos, cap)
+    result = utilizations(dem, load_duration_factors(loads, combos, cd_by_type), cap)
+    result["demands"] = dem
+    return result
 
 
 def max_utilization(L, loads, combos, cd_by_type, cap) -> np.ndarray:
