@@ -74,9 +74,11 @@ def test_two_equal_spans_interior_moment_and_reaction():
     Cb = (3.5 + 0.375) / 3.5  # NDS 3.10.4 at the interior support (more than 3 in from the end)
     expected_bearing = 1.25 * w * PLF * L / (1.5 * 3.5 * 625 * Cb)
     assert row.util_bearing == pytest.approx(expected_bearing, rel=1e-6)
-    # the negative-moment stretch runs from 0.75L to 1.25L (zero moment at 3L/4 from each end)
-    lu = 0.5 * L
-    assert row.effective_length == pytest.approx(1.63 * lu + 3 * 11.25 if lu / 11.25 >= 7 else 2.06 * lu, rel=1e-6)
+    # the negative-moment stretch runs from 0.75L to 1.25L (zero moment at 3L/4 from each end); the
+    # bottom edge is held at the support, so lu = L/4 each side; lu/d < 7: le = 2.06 lu (NDS Table 3.3.3)
+    lu = 0.25 * L
+    assert lu / 11.25 < 7
+    assert row.effective_length == pytest.approx(2.06 * lu, rel=1e-6)
 
 
 def test_cantilever_with_end_load_deflection_uses_twice_its_length():

@@ -30,6 +30,8 @@ _MEASURED = (
     ("RequiredArea", "required_A", "IfcAreaMeasure", "area"),
     ("RequiredSectionModulus", "required_S", "IfcSectionModulusMeasure", "section_modulus"),
     ("RequiredMomentOfInertia", "required_I", "IfcMomentOfInertiaMeasure", "moment_of_inertia"),
+    ("GoverningLocation", "governing_location", "IfcLengthMeasure", "length"),
+    ("SupportCount", "support_count", "IfcCountMeasure", "count"),
 )
 _LABELS = (
     ("Status", "status", "IfcLabel"),
@@ -127,10 +129,18 @@ def _verdict_properties(model, table, units: ModelUnits, checked_with: str, fact
         for name, col, ifc_type, kind in _MEASURED:
             value = float(columns[col][k]) if columns[col][k] is not None else math.nan
             if np.isfinite(value):
-                value = value * scale[kind] if kind else value
-                props.append(factory.single(name, ifc_type, round(value, 6 if kind is None else 9)))
+                props.append(factory.single(name, ifc_type, _in_model_units(value, kind, scale)))
         props.append(factory.single("CheckedWith", "IfcLabel", checked_with))
         yield element, props
+
+
+def _in_model_units(value: float, kind, scale: dict):
+    """A core-unit value as written: ratios to 6 decimals, counts as integers, lengths etc. scaled."""
+    if kind is None:
+        return round(value, 6)
+    if kind == "count":
+        return int(value)
+    return round(value * scale[kind], 9)
 
 
 def _by_guid(model: ifcopenshell.file, guid: str):

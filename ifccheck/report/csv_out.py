@@ -26,6 +26,7 @@ def exceptions_frame(rows: pd.DataFrame, units, rules: dict) -> pd.DataFrame:
     system = report_system(units, rules)
     length, f_len = factor(system, "length")
     load, f_load = factor(system, "linear_force")
+    force, f_force = factor(system, "force")
     area, f_area = factor(system, "area")
     modulus, f_mod = factor(system, "section_modulus")
     inertia, f_in = factor(system, "moment_of_inertia")
@@ -44,8 +45,12 @@ def exceptions_frame(rows: pd.DataFrame, units, rules: dict) -> pd.DataFrame:
             f"design_span_{length}": rows["design_span"] * f_len,
             f"allowable_span_{length}": rows["allowable_span"] * f_len,
             **{f"{_LOAD_NAMES[t]}_load_{load}": rows[f"w_{t}"] * f_load for t in LOAD_TYPES},
+            "support_count": rows["support_count"],
             "governing_check": rows["governing_check"],
             "governing_combination": rows["governing_combination"],
+            f"governing_location_{length}": rows["governing_location"] * f_len,
+            "bending_edge_in_compression": rows["bending_edge"],
+            f"uplift_{force}": rows["uplift_force"] * f_force,
             "max_utilization": rows["max_util"],
             "bending_utilization": rows["util_bending"],
             "shear_utilization": rows["util_shear"],

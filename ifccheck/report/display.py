@@ -8,6 +8,7 @@ from ..units import CORE, ureg
 DISPLAY = {
     "imperial": {
         "length": ("ft", ureg.foot),
+        "force": ("lbf", ureg.lbf),
         "linear_force": ("plf", ureg.lbf / ureg.foot),
         "area": ("in2", ureg.inch**2),
         "section_modulus": ("in3", ureg.inch**3),
@@ -15,6 +16,7 @@ DISPLAY = {
     },
     "metric": {
         "length": ("m", ureg.meter),
+        "force": ("kN", ureg.kilonewton),
         "linear_force": ("kN_per_m", ureg.kilonewton / ureg.meter),
         "area": ("cm2", ureg.centimeter**2),
         "section_modulus": ("cm3", ureg.centimeter**3),

@@ -83,12 +83,16 @@ def _top_edge_le(row, segments, loads, x: float, d: float) -> float:
 
 
 def _bottom_edge_le(regions, length: float, supports, loads, x: float, d: float) -> float:
-    """le of the bottom edge under negative moment at x: unbraced over the stretch where the moment
-    is negative (from the point of zero moment to the support, or to a cantilever's free end)."""
+    """le of the bottom edge under negative moment at x. The edge is in compression over the stretch
+    where the moment is negative and is held laterally only at the supports on that stretch, so the
+    unbraced length is the longest piece between a support and a point of zero moment or a free end."""
     region = next(((a, b) for a, b in regions if a - 1e-6 <= x <= b + 1e-6), (x, x))
-    lu = max(region[1] - region[0], 1e-6)
-    free_end = (region[0] <= 1e-6 and supports[0].x > 1e-6) or (region[1] >= length - 1e-6 and supports[-1].x < length - 1e-6)
-    case = _case("overhang", loads, *region) if free_end else "unspecified_loading"
+    cuts = [region[0], *(s.x for s in supports if region[0] < s.x < region[1]), region[1]]
+    pieces = list(zip(cuts, cuts[1:]))
+    start, end = max(pieces, key=lambda p: p[1] - p[0])
+    lu = max(end - start, 1e-6)
+    free_end = (start <= 1e-6 and supports[0].x > 1e-6) or (end >= length - 1e-6 and supports[-1].x < length - 1e-6)
+    case = _case("overhang", loads, start, end) if free_end else "unspecified_loading"
     return float(factors.effective_length(np.array([lu]), np.array([d]), case)[0])  # NDS Table 3.3.3
 
 
