@@ -15,7 +15,7 @@ import pandas as pd
 from . import __version__
 from .design import VERDICT_COLUMNS, get_basis
 from .design.inputs import design_inputs
-from .ifc import open_model, read_model
+from .ifc import open_model, read_members
 from .ifc.writer import copy_model, write_model_atomically, write_verdicts
 from .model import ModelUnits
 from .report.csv_out import write_exceptions_csv
@@ -33,6 +33,7 @@ class CheckResult:
     schema: str
     rules: dict
     owns_model: bool = False  # True when check_model opened the file itself
+    structural: object = None  # what the structural-analysis data gave (counts for the summary)
     _applied: bool = field(default=False, repr=False)
 
     @property
@@ -87,7 +88,7 @@ def check_model(model_or_path, rules=None) -> CheckResult:
     merged = load_rules(rules)
     owns = not hasattr(model_or_path, "by_type")
     model = open_model(model_or_path) if owns else model_or_path
-    read = read_model(model, merged)
+    read = read_members(model, merged)
     inputs = design_inputs(read.members, merged)
     basis = get_basis(merged["defaults"]["design_basis"])
     verdicts = basis.check(inputs, merged) if len(inputs) else pd.DataFrame(columns=VERDICT_COLUMNS)
@@ -97,7 +98,8 @@ def check_model(model_or_path, rules=None) -> CheckResult:
         for row in zip(table["notes"], table.get("identified_from", [""] * len(table)), table["load_sources"],
                        table["defaults_used"])
     ]
-    return CheckResult(model, table, read.skipped, read.units, read.schema, merged, owns_model=owns)
+    return CheckResult(model, table, read.skipped, read.units, read.schema, merged, owns_model=owns,
+                       structural=read.structural)
 
 
 def _provenance(notes: list, identified_from: str, load_sources: str, defaults_used: list) -> str:

@@ -177,3 +177,5 @@ class ReadResult:
     units: ModelUnits
     members: list  # list[MemberRecord]
     skipped: list  # list[SkippedElement]
+    #: what the structural-analysis data gave (ifccheck.ifc.structural.StructuralSummary), if read
+    structural: object = None

@@ -97,3 +97,14 @@ def test_formwork_with_load_bearing_false_is_not_judged(real_models_dir):
     assert len(not_bearing) == 2177  # SOURCES.md: LoadBearing=False on all 2177 beams and members
     assert not (not_bearing & set(result.table["global_id"]))
     assert not_bearing <= {s.global_id for s in result.skipped}
+
+
+def test_timber_members_of_analysis_models_are_linked_and_named(real_models_dir):
+    # SOURCES.md: roof_truss has 9 C24 IfcBeam linked to curve members through IfcRelAssignsToProduct;
+    # little_steel_frame has 17 C24 beams (and S 235 steel, skipped). C24 is an EN 338 class: no NDS values.
+    for name, linked in (("roof_truss--Axis-Struc.ifc", 9), ("little_steel_frame-3D--Axis-Struc.ifc", 17)):
+        result = ifccheck.check_model(real_models_dir / name)
+        assert result.structural.linked_by_relation == linked
+        assert len(result.table) == linked
+        assert (result.table["status"] == "NOT_CHECKED").all()
+        assert result.table["reason"].str.contains("'C24' is an EN 338 strength class").all()

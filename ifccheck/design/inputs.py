@@ -67,6 +67,11 @@ def _bracing(record, braced_type: bool, ptype: str, defaults_used: list) -> bool
     return braced_type
 
 
+def _held(supports) -> bool:
+    """A straight member is held by two supports, or by one fixed support (a cantilever)."""
+    return len(supports) >= 2 or any(s.kind == "fixed" for s in supports)
+
+
 def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
     """One row per candidate member with everything a design basis needs (core units)."""
     d = rules["defaults"]
@@ -80,8 +85,15 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
         problems = list(r.problems)
         loads, load_sources, load_problems = superimposed_loads(r)
         analysis = r.analysis if (r.analysis is not None and r.analysis.supports) else None
+        if r.analysis is not None:
+            problems += r.analysis.problems
+            if not r.analysis.supports and r.analysis.loads:
+                problems.append("the structural-analysis data loads this member but gives it no supports "
+                                "(its end nodes hold nothing and join no other member)")
+        if analysis is not None and not _held(analysis.supports):
+            problems.append(f"the structural-analysis supports do not hold the member "
+                            f"({len(analysis.supports)} pinned support); it needs two, or one fixed")
         if analysis is not None:
-            problems += analysis.problems
             if analysis.loads:
                 superseded = " (ifccheck_DesignInput loads not used)" if load_sources else ""
                 load_sources, load_problems = [f"structural-analysis data{superseded}"], []
@@ -136,7 +148,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                 "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
                 "defaults_used": used,
                 "problems": problems,
-                "notes": list(r.notes) + (analysis.notes if analysis is not None else []),
+                "notes": list(r.notes) + (r.analysis.notes if r.analysis is not None else []),
                 "analysis": analysis,
             }
         )

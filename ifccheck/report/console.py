@@ -20,6 +20,7 @@ def summary(result, outputs: "list[str]" = ()) -> str:
         skipped_by[s.category] = skipped_by.get(s.category, 0) + 1
     if skipped_by:
         lines.append("  skipped: " + ", ".join(f"{k.replace('_', ' ')} {v}" for k, v in sorted(skipped_by.items())))
+    lines += _structural_lines(result.structural)
     worst = result.table[result.table["max_util"].notna()].sort_values("max_util", ascending=False).head(10)
     if len(worst):
         system = report_system(result.units, result.rules)
@@ -43,3 +44,21 @@ def summary(result, outputs: "list[str]" = ()) -> str:
         lines.append(f"  wrote {path}")
     lines.append(f"CAUTION: {CAUTION}")
     return "\n".join(lines)
+
+
+def _structural_lines(found) -> list:
+    """What the model's structural-analysis data gave, when it has any."""
+    if found is None or not found.analysis_models:
+        return []
+    groups = ", ".join(f"{k} {v}" for k, v in sorted(found.groups_by_type.items())) or "none"
+    lines = [
+        f"  structural-analysis data: {found.analysis_models} analysis model(s), {found.curve_members} curve members; "
+        f"linked {found.linked_by_relation} members by relation and {found.linked_by_geometry} by geometry, "
+        f"{found.supports} supports",
+        f"  load groups and cases by type: {groups}; {found.load_combinations} load combinations not read "
+        f"(ASD combinations applied); {found.temperature_actions} temperature actions ignored",
+    ]
+    if found.unmapped_groups:
+        lines.append("  load groups with no load type (map them in the rules): " + ", ".join(found.unmapped_groups[:10]))
+    lines += [f"  analysis data not used: {p}" for p in found.problems]
+    return lines

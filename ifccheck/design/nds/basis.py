@@ -7,6 +7,7 @@ Core units: inch, lbf, psi, lbf/in (see ifccheck.units).
 from __future__ import annotations
 
 import functools
+import re
 
 import numpy as np
 import pandas as pd
@@ -80,6 +81,11 @@ def _material_identity(input_species, input_grade, pset_species, pset_grade, mat
     if input_species and not values.identify([("", input_species)]).species:
         return found, trail, [f"input Species '{input_species}' is not an NDS species in rules/nds2018"]
     problems = []
+    strength_class = _european_strength_class(input_grade, pset_grade, material_name)
+    if not found.grade and strength_class:
+        return found, trail, [f"'{strength_class[0]}' is an {strength_class[1]}, which has no NDS reference values; "
+                              "give an NDS species and grade (ifccheck_DesignInput Species, Grade) or wait for the "
+                              "Eurocode 5 basis"]
     if not found.grade:
         seen = input_grade or pset_grade or material_name
         problems.append(f"grade not identified ('{seen}' is not an NDS grade in rules/nds2018)")
@@ -87,6 +93,23 @@ def _material_identity(input_species, input_grade, pset_species, pset_grade, mat
         seen = input_species or pset_species or material_name
         problems.append(f"species not identified ('{seen}' is not an NDS species in rules/nds2018)")
     return found, trail, problems
+
+
+@functools.lru_cache(maxsize=1)
+def _strength_class_patterns() -> tuple:
+    table = read_table("materials/strength_class_patterns.csv")
+    table = table[(table["kind"] == "timber") & table["standard"].str.startswith("EN")]
+    return tuple((re.compile(p, re.IGNORECASE), standard) for p, standard in zip(table["pattern"], table["standard"]))
+
+
+def _european_strength_class(*texts) -> tuple:
+    """(name, standard) of an EN 338 / EN 14080 strength class named in any of the texts, else ()."""
+    for text in texts:
+        for part in re.split(r"[\s,;/]+", str(text or "")):
+            for pattern, standard in _strength_class_patterns():
+                if pattern.search(part):
+                    return part, standard
+    return ()
 
 
 def _nominal_section(b: float, d: float, plies: int):
