@@ -104,3 +104,13 @@ def test_uplift_is_a_failing_check():
     assert row.status == "FAIL" and row.governing_check == "UPLIFT"
     assert row.governing_combination == "0.6D+0.6W"
     assert row.uplift_force == pytest.approx((0.6 * 10 - 0.6 * 60) * PLF * (144 - 1.5) / 2 * -1, rel=1e-6)
+
+
+def test_analysis_loads_win_over_the_input_property_set_and_the_reason_says_so():
+    inputs = {"Species": "DF-L", "Grade": "No.2", "SelfWeightIncluded": True, "LiveLoad": 500 * PLF}
+    rec = _with_analysis(member(1.5, 9.25, 144.0, inputs, ptype="JOIST"), 144.0,
+                         [SupportRecord(0.0), SupportRecord(144.0)], [LoadRecord("L", "uniform", 40 * PLF, 0.0, 144.0)])
+    row = run_basis([rec]).iloc[0]
+    assert "ifccheck_DesignInput loads are not used" in row.reason
+    # M = wL²/8 with the analysis data's 40 plf, not the property set's 500 plf
+    assert row.f_b == pytest.approx(40 * PLF * 144**2 / 8 / (1.5 * 9.25**2 / 6), rel=1e-6)

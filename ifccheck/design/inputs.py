@@ -82,6 +82,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
     rows = []
     for r in records:
         used: list = []
+        notices: list = []
         problems = list(r.problems)
         loads, load_sources, load_problems = superimposed_loads(r)
         analysis = r.analysis if (r.analysis is not None and r.analysis.supports) else None
@@ -95,8 +96,9 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                             f"({len(analysis.supports)} pinned support); it needs two, or one fixed")
         if analysis is not None:
             if analysis.loads:
-                superseded = " (ifccheck_DesignInput loads not used)" if load_sources else ""
-                load_sources, load_problems = [f"structural-analysis data{superseded}"], []
+                if load_sources:
+                    notices.append("loads from the structural-analysis data; the ifccheck_DesignInput loads are not used")
+                load_sources, load_problems = ["structural-analysis data"], []
         problems += load_problems
         if not load_sources:
             problems.append("no loads found (no ifccheck_DesignInput loads)")
@@ -147,6 +149,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                 "n_live_input": r.inputs.get("LiveDeflectionLimit", np.nan),
                 "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
                 "defaults_used": used,
+                "notices": notices,
                 "problems": problems,
                 "notes": list(r.notes) + (r.analysis.notes if r.analysis is not None else []),
                 "analysis": analysis,
@@ -160,5 +163,5 @@ _COLUMNS = [
     "plies", "material_name", "material_category", "material_species", "material_grade", "input_species",
     "input_grade", "span_read", "span_is_clear", "span_source", "slope", *LOAD_COLUMNS, "load_sources",
     "self_weight_included", "bearing_length", "wet", "temperature_F", "incised", "braced", "unbraced_length",
-    "repetitive", "member_use", "n_live_input", "n_total_input", "defaults_used", "problems", "notes", "analysis",
+    "repetitive", "member_use", "n_live_input", "n_total_input", "defaults_used", "notices", "problems", "notes", "analysis",
 ]

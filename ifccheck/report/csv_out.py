@@ -50,6 +50,7 @@ def exceptions_frame(rows: pd.DataFrame, units, rules: dict) -> pd.DataFrame:
             "governing_combination": rows["governing_combination"],
             f"governing_location_{length}": rows["governing_location"] * f_len,
             "bending_edge_in_compression": rows["bending_edge"],
+            f"unbraced_length_{length}": rows["unbraced_length_used"] * f_len,
             f"uplift_{force}": rows["uplift_force"] * f_force,
             "max_utilization": rows["max_util"],
             "bending_utilization": rows["util_bending"],

@@ -156,6 +156,7 @@ class NdsBasis:
         t = inputs.copy()
         problems = [list(p) for p in t["problems"]]
         used = [list(u) for u in t["defaults_used"]]
+        notices = [("; " + "; ".join(n)) if n else "" for n in t["notices"]]
         self._resolve_material(t, problems)
         self._resolve_size(t, problems)
         self._resolve_values(t, problems)
@@ -174,14 +175,14 @@ class NdsBasis:
         for column in _UTIL_COLUMNS + ["max_util", "required_A", "required_S", "required_I", "allowable_span",
                                        "C_D", "C_L", "C_F", "C_r", "C_M_b", "F_b_prime", "f_b", "F_v_prime", "f_v"]:
             out[column] = np.nan
-        for column in ("governing_location", "uplift_force", "support_count", "effective_length"):
+        for column in ("governing_location", "uplift_force", "support_count", "effective_length", "unbraced_length_used"):
             out[column] = np.nan
         for column in _COMB_COLUMNS + ["governing_check", "governing_combination", "bending_edge"]:
             out[column] = ""
         out["slender"] = False
         if ok.any():
             self._run_checks(t, out, cap, ok)
-        self._verdicts(out, ok, problems, used)
+        self._verdicts(out, ok, problems, used, notices)
         return out
 
     # -- resolving what the model says into NDS terms -------------------------------------------
@@ -348,6 +349,7 @@ class NdsBasis:
         b = gov_comb[0]
         for column, key in (("C_D", "CD"), ("C_L", "C_L"), ("F_b_prime", "F_b_prime"), ("f_b", "f_b"),
                             ("bending_edge", "bending_edge"), ("effective_length", "le_bending"),
+                            ("unbraced_length_used", "lu_bending"),
                             ("slender", "too_slender")):
             out.loc[at, column] = r[key][rows, b]
         out.loc[at, "F_v_prime"] = r["F_v_prime"][rows, gov_comb[1]]
@@ -355,7 +357,7 @@ class NdsBasis:
         for column in ("C_F", "C_r", "C_M_b"):
             out.loc[at, column] = t[column].to_numpy(float)[mask]
 
-    def _verdicts(self, out: pd.DataFrame, ok: np.ndarray, problems: list, used: list) -> None:
+    def _verdicts(self, out: pd.DataFrame, ok: np.ndarray, problems: list, used: list, notices: list) -> None:
         util = out[_UTIL_COLUMNS].to_numpy(float)
         uplift = out["uplift_force"].fillna(0.0).to_numpy(float)
         fails = ok & ((np.nan_to_num(util, nan=0.0) > 1.0).any(axis=1) | (uplift > 0))
@@ -365,7 +367,7 @@ class NdsBasis:
         governing = out["governing_check"].to_numpy(object)
         reasons = []
         for k in range(len(out)):
-            assumed = ("; assumed: " + "; ".join(used[k])) if used[k] else ""
+            assumed = notices[k] + (("; assumed: " + "; ".join(used[k])) if used[k] else "")
             if not ok[k]:
                 reasons.append("; ".join(problems[k]) + assumed)
             elif fails[k]:

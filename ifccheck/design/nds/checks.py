@@ -103,9 +103,11 @@ class Demands:
     M_pos: np.ndarray
     x_pos: np.ndarray
     le_pos: np.ndarray
+    lu_pos: np.ndarray  # the unbraced length behind le_pos (NaN where held), in
     M_neg: np.ndarray
     x_neg: np.ndarray
     le_neg: np.ndarray
+    lu_neg: np.ndarray
     V: np.ndarray
     x_V: np.ndarray
     R: np.ndarray
@@ -161,6 +163,7 @@ def utilizations(dem: Demands, CD: np.ndarray, cap: SectionCapacity) -> dict:
         "bending_edge": np.where(negative, "bottom", "top"),
         "x_bending": pick(dem.x_pos, dem.x_neg),
         "le_bending": pick(dem.le_pos, dem.le_neg),
+        "lu_bending": pick(dem.lu_pos, dem.lu_neg),
         "f_b": pick(f_pos, f_neg),
         "F_b_prime": pick(F_pos, F_neg),
         "f_v": f_v,
@@ -181,6 +184,7 @@ def closed_form_demands(L: np.ndarray, loads: np.ndarray, combos: np.ndarray, ca
     lu = np.where(np.isnan(cap.unbraced_length), L, cap.unbraced_length)
     le = np.broadcast_to(factors.effective_length(lu, cap.d, "single_span_uniform")[:, None], shape)  # NDS Table 3.3.3
     le_top = np.where(cap.braced[:, None], np.nan, le)
+    lu_top = np.where(cap.braced[:, None], np.nan, np.broadcast_to(lu[:, None], shape))
     le_bottom = np.broadcast_to(factors.effective_length(L, cap.d, "single_span_uniform")[:, None], shape)
     midspan = np.broadcast_to(lb / 2.0 + L2 / 2.0, shape)
     R = w * L2 / 2.0
@@ -189,8 +193,8 @@ def closed_form_demands(L: np.ndarray, loads: np.ndarray, combos: np.ndarray, ca
     live = loads[:, _LIVE_TYPES] @ combos[:, _LIVE_TYPES].T
     dead = loads[:, [_DEAD]] * combos[None, :, _DEAD]
     return Demands(
-        M_pos=np.maximum(M, 0.0), x_pos=midspan, le_pos=le_top,
-        M_neg=np.maximum(-M, 0.0), x_neg=midspan, le_neg=le_bottom,
+        M_pos=np.maximum(M, 0.0), x_pos=midspan, le_pos=le_top, lu_pos=lu_top,
+        M_neg=np.maximum(-M, 0.0), x_neg=midspan, le_neg=le_bottom, lu_neg=np.broadcast_to(L2, shape),
         V=np.abs(w) * shear_arm(L, cap)[:, None],
         x_V=np.broadcast_to(lb / 2.0 + shear_offset(cap)[:, None], shape),
         R=np.maximum(R, 0.0),

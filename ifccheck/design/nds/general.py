@@ -72,18 +72,22 @@ def _case(kind: str, loads: tuple, start: float, end: float) -> str:
     return "unspecified_loading"
 
 
-def _top_edge_le(row, segments, loads, x: float, d: float) -> float:
-    """le of the top edge under positive moment at x (NaN where the edge is braced)."""
+def _effective(lu: float, d: float, case: str) -> tuple:
+    """(lu, le) with le from NDS Table 3.3.3 for the stretch's case."""
+    return lu, float(factors.effective_length(np.array([lu]), np.array([d]), case)[0])
+
+
+def _top_edge(row, segments, loads, x: float, d: float) -> tuple:
+    """(lu, le) of the top edge under positive moment at x ((NaN, NaN) where the edge is braced)."""
     if row.braced:
-        return np.nan
+        return np.nan, np.nan
     seg = _segment_at(segments, x)
     lu = row.unbraced_length if np.isfinite(row.unbraced_length) else seg.end - seg.start
-    case = _case(seg.kind, loads, seg.start, seg.end)
-    return float(factors.effective_length(np.array([lu]), np.array([d]), case)[0])  # NDS Table 3.3.3
+    return _effective(lu, d, _case(seg.kind, loads, seg.start, seg.end))
 
 
-def _bottom_edge_le(regions, length: float, supports, loads, x: float, d: float) -> float:
-    """le of the bottom edge under negative moment at x. The edge is in compression over the stretch
+def _bottom_edge(regions, length: float, supports, loads, x: float, d: float) -> tuple:
+    """(lu, le) of the bottom edge under negative moment at x. The edge is in compression over the stretch
     where the moment is negative and is held laterally only at the supports on that stretch, so the
     unbraced length is the longest piece between a support and a point of zero moment or a free end."""
     region = next(((a, b) for a, b in regions if a - 1e-6 <= x <= b + 1e-6), (x, x))
@@ -92,8 +96,7 @@ def _bottom_edge_le(regions, length: float, supports, loads, x: float, d: float)
     start, end = max(pieces, key=lambda p: p[1] - p[0])
     lu = max(end - start, 1e-6)
     free_end = (start <= 1e-6 and supports[0].x > 1e-6) or (end >= length - 1e-6 and supports[-1].x < length - 1e-6)
-    case = _case("overhang", loads, start, end) if free_end else "unspecified_loading"
-    return float(factors.effective_length(np.array([lu]), np.array([d]), case)[0])  # NDS Table 3.3.3
+    return _effective(lu, d, _case("overhang", loads, start, end) if free_end else "unspecified_loading")
 
 
 def _deflection_ratio(segments, supports, n: float):
@@ -126,12 +129,16 @@ def _member_demands(row, result, loads, names, cap: SectionCapacity, k: int) -> 
         top, bottom = env.max_moment, env.min_moment
         out["M_pos"].append(max(top.value, 0.0))
         out["x_pos"].append(top.x)
-        out["le_pos"].append(_top_edge_le(row, segments, loads, top.x, d))
+        lu, le = _top_edge(row, segments, loads, top.x, d)
+        out["lu_pos"].append(lu)
+        out["le_pos"].append(le)
         out["M_neg"].append(max(-bottom.value, 0.0))
         out["x_neg"].append(bottom.x)
         # the stretch in negative moment under the live-load pattern that gives the extreme
         regions = env.patterns[bottom.pattern].negative_moment_regions if bottom.value < 0 else ()
-        out["le_neg"].append(_bottom_edge_le(regions, length, supports, loads, bottom.x, d) if regions else np.nan)
+        lu, le = _bottom_edge(regions, length, supports, loads, bottom.x, d) if regions else (np.nan, np.nan)
+        out["lu_neg"].append(lu)
+        out["le_neg"].append(le)
         faces = [f for s in env.supports for f in (s.shear_left_face, s.shear_right_face) if np.isfinite(f.value)]
         face = max(faces, key=lambda f: abs(f.value))
         out["V"].append(abs(face.value))
