@@ -88,6 +88,10 @@ class SupportRecord:
     kind: str = "pinned"
     width: float = float("nan")
     source: str = ""
+    #: where this member bears on another checked member: that member's GlobalId and the position
+    #: along it (in); the reaction here is a point load on the carrier ("" / NaN when none)
+    carrier: str = ""
+    carrier_x: float = float("nan")
 
 
 @dataclass(frozen=True)
