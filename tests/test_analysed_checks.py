@@ -114,3 +114,35 @@ def test_analysis_loads_win_over_the_input_property_set_and_the_reason_says_so()
     assert "ifccheck_DesignInput loads are not used" in row.reason
     # M = wL²/8 with the analysis data's 40 plf, not the property set's 500 plf
     assert row.f_b == pytest.approx(40 * PLF * 144**2 / 8 / (1.5 * 9.25**2 / 6), rel=1e-6)
+
+
+def _beam(name, length, supports, loads, b=1.5, d=11.25, ptype="BEAM", grade="No.2"):
+    inputs = {"Species": "DF-L", "Grade": grade, "SelfWeightIncluded": True, "ContinuouslyBraced": True}
+    return _with_analysis(member(b, d, length, inputs, ptype=ptype, name=name), length, supports, loads)
+
+
+def test_a_joist_framing_into_a_girder_loads_it_with_its_reaction():
+    # load path (common practice): the joist's end reaction w·L/2 is a point load on the girder; a
+    # simple-span girder with a point load P at a: R1 = P(L - a)/L, M = P·a·(L - a)/L (AWC Design Aid No. 6)
+    w, Lj, Lg, a = 80.0, 144.0, 192.0, 64.0
+    joist = _beam("J1", Lj, [SupportRecord(0.0), SupportRecord(Lj, carrier="guid-G1", carrier_x=a)],
+                  [LoadRecord("L", "uniform", w * PLF, 0.0, Lj)], ptype="JOIST")
+    girder = _beam("G1", Lg, [SupportRecord(0.0), SupportRecord(Lg)], [], b=3.0)
+    t = run_basis([girder, joist]).set_index("name")
+    P = w * PLF * Lj / 2
+    S = 3.0 * 11.25**2 / 6
+    assert t.loc["G1", "f_b"] == pytest.approx(P * a * (Lg - a) / Lg / S, rel=1e-6)
+    assert t.loc["G1", "status"] != "NOT_CHECKED"
+
+
+def test_a_carrier_of_an_unchecked_member_and_a_cycle_are_not_checked():
+    j = _beam("J1", 144.0, [SupportRecord(0.0), SupportRecord(144.0, carrier="guid-G1", carrier_x=50.0)],
+              [LoadRecord("L", "uniform", 5.0, 0.0, 144.0)], grade="Premium X")
+    g = _beam("G1", 192.0, [SupportRecord(0.0), SupportRecord(192.0)], [])
+    a = _beam("A", 100.0, [SupportRecord(0.0), SupportRecord(100.0, carrier="guid-B", carrier_x=50.0)],
+              [LoadRecord("D", "uniform", 5.0, 0.0, 100.0)])
+    b = _beam("B", 100.0, [SupportRecord(0.0), SupportRecord(100.0, carrier="guid-A", carrier_x=50.0)],
+              [LoadRecord("D", "uniform", 5.0, 0.0, 100.0)])
+    t = run_basis([j, g, a, b]).set_index("name")
+    assert t.loc["G1", "status"] == "NOT_CHECKED" and "carries J1" in t.loc["G1", "reason"]
+    assert "cycle" in t.loc["A", "reason"] and "cycle" in t.loc["B", "reason"]

@@ -79,6 +79,9 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
     temperature_default = parse_temperature_f(d["service_temperature"])
     braced_types = set(d["continuously_braced_types"])
     repetitive_types = set(d["repetitive_types"])
+    carriers = {
+        s.carrier for r in records if r.analysis is not None for s in r.analysis.supports if s.carrier
+    }
     rows = []
     for r in records:
         used: list = []
@@ -100,6 +103,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                     notices.append("loads from the structural-analysis data; the ifccheck_DesignInput loads are not used")
                 load_sources, load_problems = ["structural-analysis data"], []
         problems += load_problems
+        if r.global_id in carriers:
+            load_sources.append("reactions of the members bearing on it")
         if not load_sources:
             problems.append("no loads found (no ifccheck_DesignInput loads)")
         ptype = r.predefined_type or "NOTDEFINED"

@@ -16,6 +16,7 @@ from ...errors import DesignValueLookupError
 from ...model import LOAD_TYPES
 from ...rules import read_table
 from ..inputs import LOAD_COLUMNS
+from ..load_path import carrier_edges, dependency_levels
 from . import factors, values
 from .checks import CHECKS, SectionCapacity, allowable_span, evaluate
 from .general import analysed_checks
@@ -148,6 +149,22 @@ def _deflection_limits(member_use: str, n_live_input: float, n_total_input: floa
                          f"(IBC 2018 Table 1604.3, {member_use.replace('_', ' ')})")
 
 
+def _load_path_problems(t: pd.DataFrame, problems: list) -> None:
+    """A member on a cycle of carriers, or carrying a member that cannot be checked (its reaction
+    is then unknown), cannot be checked either."""
+    if "analysis" not in t:
+        return
+    names = [f"{n or g}" for n, g in zip(t["name"], t["global_id"])]
+    edges = carrier_edges(list(t["global_id"]), list(t["analysis"]))
+    levels, cyclic = dependency_levels(len(t), edges)
+    for k in sorted(cyclic):
+        problems[k].append("on a cycle of members bearing on each other; the load path cannot be ordered")
+    position = {k: n for n, level in enumerate(levels) for k in level}
+    for carried, _, carrier, _ in sorted(edges, key=lambda e: position.get(e[0], -1)):
+        if problems[carried] and carried not in cyclic:
+            problems[carrier].append(f"carries {names[carried]}, which cannot be checked, so its reaction is unknown")
+
+
 class NdsBasis:
     key = "NDS"
     label = "NDS 2018 / ASCE 7-16 ASD"
@@ -164,6 +181,7 @@ class NdsBasis:
         self._add_self_weight(t)
         self._deflection_limits(t, used)
         cap = self._capacity(t, rules, problems)
+        _load_path_problems(t, problems)
         ok = np.array([not p for p in problems])
         out = pd.DataFrame(index=t.index)
         out["design_basis"] = self.label

@@ -13,6 +13,7 @@ import pandas as pd
 
 from ...analysis import BeamLayout, BeamMember, LinearLoad, PointLoad, PointMoment, Support, UniformLoad, analyse_beams
 from ...model import LOAD_TYPES
+from ..load_path import carrier_edges, dependency_levels
 from . import factors
 from .checks import Demands, SectionCapacity, load_duration_factors, utilizations
 
@@ -166,32 +167,52 @@ def _member_demands(row, result, loads, names, cap: SectionCapacity, k: int) -> 
 
 def analysed_checks(rows: pd.DataFrame, combos: np.ndarray, names: tuple, cd_by_type: np.ndarray, cap: SectionCapacity):
     """NDS checks of members with analysis data: (results as from :func:`checks.utilizations` with
-    their ``demands``, number of supports per member)."""
-    members, all_loads, types_present = [], [], []
-    for k, row in enumerate(rows.itertuples()):
-        analysis = row.analysis
-        supports = tuple(
-            Support(s.x, s.kind, s.width if np.isfinite(s.width) else row.bearing_length) for s in analysis.supports
-        )
-        loads = engine_loads(analysis.loads, row.self_weight) if analysis.loads else uniform_loads(row)
-        layout = BeamLayout(analysis.length, supports, cap.E_prime[k] * cap.I[k])
-        members.append(BeamMember(layout, loads))
-        all_loads.append(loads)
-        types_present.append([1.0 if any(l.load_type == t for l in loads) else 0.0 for t in LOAD_TYPES])
-    results = [None] * len(members)
-    for K_cr in np.unique(cap.K_cr):  # the long-term combinations depend on the creep factor
-        group = np.flatnonzero(cap.K_cr == K_cr)
-        solved = analyse_beams([members[k] for k in group], _combination_sets(combos, names, float(K_cr)))
-        for k, res in zip(group, solved):
-            results[k] = res
-    per_member = [
-        _member_demands(row, results[k], all_loads[k], names, cap, k) for k, row in enumerate(rows.itertuples())
-    ]
+    their ``demands``, supports per member, longest span per member).
+
+    Members are analysed level by level along the load path: a member that bears on another one
+    hands its reactions, per load type, to that carrier as point loads.
+    """
+    row_list = list(rows.itertuples())
+    analyses = [row.analysis for row in row_list]
+    edges = carrier_edges([row.global_id for row in row_list], analyses)
+    levels, _ = dependency_levels(len(row_list), edges)  # cycles were made NOT_CHECKED before
+    loads = [engine_loads(a.loads, row.self_weight) if a.loads else uniform_loads(row) for a, row in zip(analyses, row_list)]
+    results = [None] * len(row_list)
+    for level in levels:
+        members = {k: BeamMember(_layout(row_list[k], cap, k), loads[k]) for k in level}
+        for K_cr in np.unique(cap.K_cr[level]):  # the long-term combinations depend on the creep factor
+            group = [k for k in level if cap.K_cr[k] == K_cr]
+            solved = analyse_beams([members[k] for k in group], _combination_sets(combos, names, float(K_cr)))
+            for k, res in zip(group, solved):
+                results[k] = res
+        for carried, j, carrier, x in edges:
+            if carried in members:
+                loads[carrier] = loads[carrier] + _reaction_loads(results[carried], j, x)
+    per_member = [_member_demands(row, results[k], loads[k], names, cap, k) for k, row in enumerate(row_list)]
     dem = Demands(**{key: np.array([m[key] for m in per_member], dtype=float) for key in Demands.__dataclass_fields__})
+    types_present = [[1.0 if any(l.load_type == t for l in member_loads) else 0.0 for t in LOAD_TYPES]
+                     for member_loads in loads]
     CD = load_duration_factors(np.array(types_present), combos, cd_by_type)
     r = utilizations(dem, CD, cap)
     r["demands"] = dem
-    return r, np.array([len(m.layout.supports) for m in members]), np.array([_longest_span(m.layout) for m in members])
+    layouts = [res.layout for res in results]
+    return r, np.array([len(l.supports) for l in layouts]), np.array([_longest_span(l) for l in layouts])
+
+
+def _layout(row, cap: SectionCapacity, k: int) -> BeamLayout:
+    supports = tuple(
+        Support(s.x, s.kind, s.width if np.isfinite(s.width) else row.bearing_length) for s in row.analysis.supports
+    )
+    return BeamLayout(row.analysis.length, supports, cap.E_prime[k] * cap.I[k])
+
+
+def _reaction_loads(result, support: int, x: float) -> tuple:
+    """The reactions of one support, per load type, as point loads on the carrier at x (lbf, down)."""
+    return tuple(
+        PointLoad(t, float(case.reactions[support]), x)
+        for t, case in result.unit_cases.items()
+        if float(case.reactions[support]) != 0.0
+    )
 
 
 def _longest_span(layout: BeamLayout) -> float:
