@@ -2,15 +2,18 @@
 
 The Quillfeather Annex is an invented two-storey extension of the invented Quillfeather Studio
 (see README.md beside this file): a bindery on the ground floor and a drying loft above, with a
-small balcony. ``quillfeather_annex_structural.ifc`` (IFC4; foot, lbf, lbf/ft) holds four timber
+small balcony. ``quillfeather_annex_structural.ifc`` (IFC4; foot, lbf, lbf/ft) holds five timber
 members of its loft floor and loft wall, each as a physical ``IfcBeam`` (body, axis, material,
 ``ifccheck_DesignInput``) and as an ``IfcStructuralCurveMember`` of one
 ``IfcStructuralAnalysisModel`` that carries the member's supports and loads:
 
 * J-A-01, a two-span continuous floor joist under uniform dead and live load;
-* G-A-01, a simply supported girder under joist reactions at 2 ft;
+* G-A-01, a simply supported girder under joist reactions at 2 ft, and J-A-02 framing in at mid-span;
 * BJ-A-01, a balcony joist with a back span and an overhang under uniform load;
-* HDR-A-01, a header under one post load (dead and snow).
+* HDR-A-01, a header under one post load (dead and snow);
+* J-A-02, a store-room joist from the north wall to the girder's mid-span under uniform load, whose
+  end node is a point connection of the girder's curve member (no boundary condition): the girder
+  carries it.
 
 Usage: ``python sample_models/build_structural_sample.py [OUT_DIR]`` (default: this folder).
 
@@ -62,6 +65,7 @@ ANNEX_DESCRIPTION = (
 ANNEX_STOREYS = (("Ground Floor", 0.0), ("Upper Floor", 120.0))
 
 P2PLY_2X10 = Profile("2x10", 1.5, 9.25, plies=2)
+P2X12 = Profile("2x12", 1.5, 11.25)
 
 # ------------------------------------------------------------------------------------------
 # Load cases, supports and loads (positions in inches along the member from its start)
@@ -113,6 +117,17 @@ class PointLoadSpec:
 
 
 @dataclass(frozen=True)
+class JointSpec:
+    """A point connection without a boundary condition where the end of member ``carried`` frames
+    into member ``carrier`` at ``x`` along the carrier."""
+
+    carried: str
+    carrier: str
+    x: float
+    description: str
+
+
+@dataclass(frozen=True)
 class AnalysedMember:
     """A physical member and what its structural-analysis member carries."""
 
@@ -144,10 +159,12 @@ JOIST_RUN = AnalysedMember(
 # reactions of 8 ft store-room joists at 24 in o.c.: 10 psf x 2 ft x 4 ft and 40 psf x 2 ft x 4 ft
 GIRDER_REACTION_D = 80.0
 GIRDER_REACTION_L = 320.0
+GIRDER_Z = FLOOR_Z - P2PLY_2X12.d / 2
+GIRDER_MID = 72.0  # where J-A-02 frames in; the other store-room joists are loads
 GIRDER = AnalysedMember(
     MemberSpec(
         "G-A-01", "IfcBeam", "BEAM", "Upper Floor", P2PLY_2X12,
-        (72.0, 144.0, FLOOR_Z - P2PLY_2X12.d / 2), (216.0, 144.0, FLOOR_Z - P2PLY_2X12.d / 2),
+        (72.0, 144.0, GIRDER_Z), (216.0, 144.0, GIRDER_Z),
         "Flush girder of the store-room floor between the posts at x = 6 ft and 18 ft, "
         "carrying 8 ft joists at 24 in from the north",
         material=DFL1, inputs={"SelfWeightIncluded": True, "UnbracedLength": 24.0},
@@ -156,8 +173,20 @@ GIRDER = AnalysedMember(
     point_loads=tuple(
         PointLoadSpec(load_type, x, P)
         for load_type, P in (("D", GIRDER_REACTION_D), ("L", GIRDER_REACTION_L))
-        for x in (24.0, 48.0, 72.0, 96.0, 120.0)
+        for x in (24.0, 48.0, 96.0, 120.0)
     ),
+)
+
+# the store-room joist at the girder's mid-span, 2x12 flush with the girder (same axis height), from
+# the north wall to the girder's axis: 8 ft at 24 in o.c., 10 psf dead and 40 psf live: 20 and 80 plf
+STORE_JOIST = AnalysedMember(
+    MemberSpec(
+        "J-A-02", "IfcBeam", "JOIST", "Upper Floor", P2X12, (144.0, 240.0, GIRDER_Z), (144.0, 144.0, GIRDER_Z),
+        "Store-room floor joist from the north wall to the girder G-A-01 at its mid-span, in a joist hanger",
+        material=DFL2, inputs=BRACED_JOIST,
+    ),
+    supports=(SupportSpec(0.0, "pinned", "north wall"),),
+    line_loads=(LineLoadSpec("D", 10.0 * 24 / 12), LineLoadSpec("L", 40.0 * 24 / 12)),
 )
 
 # 15 psf dead and 60 psf balcony live at 16 in o.c.: 20 and 80 plf
@@ -185,7 +214,8 @@ HEADER = AnalysedMember(
     point_loads=(PointLoadSpec("D", 24.0, 1800.0), PointLoadSpec("S", 24.0, 3000.0)),
 )
 
-ANALYSED_MEMBERS = (JOIST_RUN, GIRDER, BALCONY_JOIST, HEADER)
+ANALYSED_MEMBERS = (JOIST_RUN, GIRDER, BALCONY_JOIST, HEADER, STORE_JOIST)
+JOINTS = (JointSpec("J-A-02", "G-A-01", GIRDER_MID, "joist hanger of J-A-02 at the girder's mid-span"),)
 
 # ------------------------------------------------------------------------------------------
 # The model
@@ -212,6 +242,7 @@ class StructuralSampleBuilder(SampleBuilder):
         )
         self.conditions = {}
         self.case_actions = {case.load_type: [] for case in LOAD_CASES}
+        self.vertices = {}  # world position (in) -> its one IfcVertexPoint, shared by all its users
 
     def add_spatial_structure(self) -> dict:
         """Project → site → building → storeys, as in the studio models but with the annex's names."""
@@ -277,17 +308,21 @@ class StructuralSampleBuilder(SampleBuilder):
         )
         return self.model.create_entity("IfcProductDefinitionShape", Representations=[representation])
 
+    def vertex(self, spec: MemberSpec, x: float):
+        """The IfcVertexPoint at ``x`` along a member: one per position in the model, shared by its users."""
+        position = point_along(spec, x)
+        if position not in self.vertices:
+            world = [self.geometry.length(c) for c in position]
+            self.vertices[position] = self.model.create_entity("IfcVertexPoint", self.geometry.point(world))
+        return self.vertices[position]
+
     def add_structural_member(self, analysed: AnalysedMember, beam) -> list:
         """The curve member of one physical member with its supports and actions; returns the
         curve member and its point connections (the items of the analysis model's group)."""
         spec = analysed.member
-        vertices = {}
 
-        def vertex(x: float):  # one IfcVertexPoint per position on the member, shared by its users
-            if x not in vertices:
-                world = [self.geometry.length(c) for c in point_along(spec, x)]
-                vertices[x] = self.model.create_entity("IfcVertexPoint", self.geometry.point(world))
-            return vertices[x]
+        def vertex(x: float):
+            return self.vertex(spec, x)
 
         edge = self.model.create_entity("IfcEdge", vertex(0.0), vertex(math.dist(spec.start, spec.end)))
         curve_member = self.rooted(
@@ -314,6 +349,21 @@ class StructuralSampleBuilder(SampleBuilder):
             "IfcRelConnectsStructuralMember",
             RelatingStructuralMember=curve_member, RelatedStructuralConnection=connection,
         )
+        return connection
+
+    def add_joint(self, joint: JointSpec, carrier: MemberSpec, curve_members: list):
+        """The point connection, holding nothing, of the carried member's end and the carrier's
+        curve member (at the vertex the carried member's edge ends on)."""
+        connection = self.rooted(
+            "IfcStructuralPointConnection", Name=f"{joint.carried} on {joint.carrier}", Description=joint.description,
+            ObjectPlacement=self.shared_placement,
+            Representation=self.topology_shape("Vertex", self.vertex(carrier, joint.x)),
+        )
+        for curve_member in curve_members:
+            self.rooted(
+                "IfcRelConnectsStructuralMember",
+                RelatingStructuralMember=curve_member, RelatedStructuralConnection=connection,
+            )
         return connection
 
     def add_line_load(self, member_name: str, load: LineLoadSpec, curve_member) -> None:
@@ -347,13 +397,20 @@ class StructuralSampleBuilder(SampleBuilder):
         self.rooted("IfcRelConnectsStructuralActivity", RelatingElement=curve_member, RelatedStructuralActivity=action)
         self.case_actions[load_type].append(action)
 
-    def build_annex(self, analysed_members=ANALYSED_MEMBERS) -> ifcopenshell.file:
-        """The physical members, then the analysis model with their curve members; fixed ids and header."""
+    def build_annex(self, analysed_members=ANALYSED_MEMBERS, joints=JOINTS) -> ifcopenshell.file:
+        """The physical members, then the analysis model with their curve members and the joints
+        between them; fixed ids and header."""
         beams = [self.add_member(analysed.member) for analysed in analysed_members]
         analysis = self.add_analysis_model()
-        items = []
+        items, curve_members = [], {}
         for analysed, beam in zip(analysed_members, beams):
-            items += self.add_structural_member(analysed, beam)
+            member_items = self.add_structural_member(analysed, beam)
+            curve_members[analysed.member.name] = member_items[0]
+            items += member_items
+        specs = {analysed.member.name: analysed.member for analysed in analysed_members}
+        for joint in joints:
+            pair = [curve_members[joint.carried], curve_members[joint.carrier]]
+            items.append(self.add_joint(joint, specs[joint.carrier], pair))
         self.rooted("IfcRelAssignsToGroup", RelatedObjects=items, RelatingGroup=analysis)
         for load_type, case in self.load_cases.items():
             if self.case_actions[load_type]:

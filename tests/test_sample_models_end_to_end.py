@@ -121,15 +121,18 @@ def test_in_memory_model_is_not_changed_and_nothing_is_written(tmp_path, monkeyp
 
 def test_annex_with_structural_analysis_model():
     # sample_models/README.md, annex section: hand calculations of the two-span joist (governing the
-    # negative moment at the interior support, 0.62), the girder on point loads (0.69), the balcony
-    # joist with its overhang (0.58) and the header under a post load (1.58, fails)
+    # negative moment at the interior support, 0.62), the girder on point loads, one of them the
+    # reaction of joist J-A-02 framing into it (0.69), the balcony joist with its overhang (0.58),
+    # the header under a post load (1.58, fails) and J-A-02 itself (0.29)
     result = ifccheck.check_model(SAMPLES / "quillfeather_annex_structural.ifc")
     t = result.table.set_index("name")
-    assert dict(t["status"]) == {"J-A-01": "PASS", "G-A-01": "PASS", "BJ-A-01": "PASS", "HDR-A-01": "FAIL"}
-    expected = {"J-A-01": 0.62, "G-A-01": 0.69, "BJ-A-01": 0.58, "HDR-A-01": 1.58}
+    assert dict(t["status"]) == {"J-A-01": "PASS", "G-A-01": "PASS", "BJ-A-01": "PASS", "HDR-A-01": "FAIL",
+                                 "J-A-02": "PASS"}
+    expected = {"J-A-01": 0.62, "G-A-01": 0.69, "BJ-A-01": 0.58, "HDR-A-01": 1.58, "J-A-02": 0.29}
     for name, util in expected.items():
         assert t.loc[name, "max_util"] == pytest.approx(util, abs=0.01), name
     assert t.loc["J-A-01", "support_count"] == 3 and t.loc["J-A-01", "bending_edge"] == "bottom"
     assert t.loc["J-A-01", "governing_location"] == pytest.approx(144.0, abs=0.01)  # the interior support
     assert "structural-analysis data" in t.loc["HDR-A-01", "load_sources"]
-    assert result.structural.linked_by_relation == 4 and result.structural.supports == 9
+    assert "reactions of the members bearing on it" in t.loc["G-A-01", "load_sources"]
+    assert result.structural.linked_by_relation == 5 and result.structural.supports == 11

@@ -432,10 +432,11 @@ def test_ifc4_sloped_member_true_length_values_become_per_horizontal_length():
     assert (dead.a, dead.b) == (pytest.approx(0.0, abs=1e-9), pytest.approx(4 * IN_PER_M, rel=EXACT))
 
 
-def test_ifc4_joist_framing_into_a_girder_is_supported_there():
-    """A joist whose end node (no boundary condition) joins a girder's curve members gets a pinned
-    support there naming the girder; the girder is told the joist frames into it (load transfer is
-    a later issue). 3 m joist, girder 6 m along Y with the joist at its mid-point."""
+def test_ifc4_joist_framing_into_a_split_girder_bears_on_it():
+    """A joist whose end node (no boundary condition) joins a girder's two curve members at the
+    girder's mid-point gets a pinned support there carried by the girder; the girder is told.
+    3 m joist along X, girder 6 m along Y; hand calculation: the node (3, 3, 0) m lies 3 m from the
+    girder's start (3, 0, 0) m, 3 m = 118.11024 in, inside the girder (its ends at 0 and 236.22 in)."""
     m = Model("IFC4", "kN-m")
     joist, girder = m.beam((0, 3, 0), (3, 3, 0), "J1"), m.beam((3, 0, 0), (3, 6, 0), "G1")
     joist_curve = m.curve((0, 3, 0), (3, 3, 0))
@@ -452,9 +453,138 @@ def test_ifc4_joist_framing_into_a_girder_is_supported_there():
         (pytest.approx(0.0, abs=1e-9), "pinned", "boundary condition of IfcStructuralPointConnection 'N'"),
         (pytest.approx(3 * IN_PER_M, rel=EXACT), "pinned", "joint with IfcBeam 'G1'"),
     ]
-    assert any("later issue" in note for note in on_joist.notes)
-    assert [s.x for s in on_girder.supports] == pytest.approx([0.0, 6 * IN_PER_M], abs=1e-9)
-    assert any("IfcBeam 'J1' frame(s) into this member" in note for note in on_girder.notes)
+    first, bearing = on_joist.supports
+    assert (first.carrier, math.isnan(first.carrier_x)) == ("", True)
+    assert (bearing.carrier, bearing.carrier_x) == (girder.GlobalId, pytest.approx(3 * IN_PER_M, rel=EXACT))
+    assert "support at x = 118.1 in: this member frames into IfcBeam 'G1' (taken as pinned); its reaction is " \
+        "applied to that member as a point load at x = 118.1 in along it" in on_joist.notes
+    assert [(s.x, s.carrier) for s in on_girder.supports] == [
+        (pytest.approx(0.0, abs=1e-9), ""),
+        (pytest.approx(6 * IN_PER_M, rel=EXACT), ""),
+    ]
+    assert "IfcBeam 'J1' frames into this member at x = 118.1 in; its reaction is applied here as a point load " \
+        "(the design check analyses the carried member first)" in on_girder.notes
+    assert not any("later issue" in note for note in on_joist.notes + on_girder.notes)
+
+
+def joist_on_girder(checked=("joist", "girder")):
+    """3 m joist J1 from (0, 2, 0) to (3, 2, 0) m, restrained at its start; girder G1 whose axis runs
+    from (3, 6, 0) to (3, 0, 0) m on one curve member drawn from (3, 0, 0) to (3, 6, 0), pinned at both
+    ends. The free node at (3, 2, 0) m joins both curve members (the joist's end, inside the girder's
+    curve member). A dead point load of -1 kN acts on that node; 2 kN/m dead on the joist."""
+    m = Model("IFC4", "kN-m")
+    joist, girder = m.beam((0, 2, 0), (3, 2, 0), "J1"), m.beam((3, 6, 0), (3, 0, 0), "G1")
+    joist_curve, girder_curve = m.curve((0, 2, 0), (3, 2, 0), "JC"), m.curve((3, 0, 0), (3, 6, 0), "GC")
+    m.link(joist, [joist_curve])
+    m.link(girder, [girder_curve])
+    m.node((0, 2, 0), [joist_curve], (1, 1, 1, 0, 0, 0))
+    m.node((3, 0, 0), [girder_curve], (1, 1, 1, 0, 0, 0))
+    m.node((3, 6, 0), [girder_curve], (0, 0, 1, 0, 0, 0))
+    joint = m.node((3, 2, 0), [joist_curve, girder_curve], name="joint")
+    dead = m.group("Dead", source="DEAD_LOAD_G")
+    m.point_load(joint, dead, -1.0)
+    m.line_load(joist_curve, dead, -2.0)
+    members = {"joist": joist, "girder": girder}
+    summary = m.read([members[name] for name in checked])
+    return summary, joist, girder
+
+
+def test_joist_end_node_inside_a_girder_curve_member_gets_the_girder_as_carrier():
+    """The joist's end node is an interior node of the girder's single curve member (the same
+    IfcStructuralPointConnection). Hand calculation: the girder's axis starts at (3, 6, 0) m, so the
+    node (3, 2, 0) m lies 6 - 2 = 4 m along it = 157.48031 in; the joist's end is at 3 m = 118.11024 in.
+    The point load on the joint lies inside the girder, so the girder takes it (1 kN = 224.8089 lbf
+    at 157.48 in) and the joist does not; the joist keeps its own 2 kN/m."""
+    summary, joist, girder = joist_on_girder()
+    on_joist, on_girder = summary.by_member[joist.GlobalId], summary.by_member[girder.GlobalId]
+    support = on_joist.supports[-1]
+    assert (support.x, support.kind) == (pytest.approx(3 * IN_PER_M, rel=EXACT), "pinned")
+    assert (support.carrier, support.carrier_x) == (girder.GlobalId, pytest.approx(4 * IN_PER_M, rel=EXACT))
+    assert [(load.kind, load.value) for load in on_joist.loads] == [
+        ("uniform", pytest.approx(2 * LBF_PER_IN_PER_KN_PER_M, rel=EXACT))
+    ]
+    (node_load,) = on_girder.loads
+    assert (node_load.kind, node_load.a) == ("point", pytest.approx(4 * IN_PER_M, rel=EXACT))
+    assert node_load.value == pytest.approx(LBF_PER_KN, rel=EXACT)
+    assert [s.x for s in on_girder.supports] == pytest.approx([0.0, 6 * IN_PER_M], rel=EXACT, abs=1e-9)
+    assert "IfcBeam 'J1' frames into this member at x = 157.5 in; its reaction is applied here as a point load " \
+        "(the design check analyses the carried member first)" in on_girder.notes
+    assert on_joist.problems == [] and on_girder.problems == []
+
+
+@pytest.mark.parametrize("offset_mm, matched", [(10.0, True), (80.0, False)])
+def test_distinct_coincident_connections_are_matched_by_position(offset_mm, matched):
+    """The joist's end node joins only the joist; the girder, split in two curve members, has its own
+    node offset_mm away across it (along X). The joist's tolerance is max(1 % of 118.11 in, 2 in) = 2 in:
+    10 mm = 0.394 in is within it, so the girder carries the joist at 4 m = 157.48031 in along it
+    (the offset is across the girder, so it does not change x); 80 mm = 3.150 in is not, and the
+    joist's end holds nothing (no support there)."""
+    m = Model("IFC4", "kN-m")
+    joist, girder = m.beam((0, 2, 0), (3, 2, 0), "J1"), m.beam((3, 6, 0), (3, 0, 0), "G1")
+    joist_curve = m.curve((0, 2, 0), (3, 2, 0))
+    x = 3 + offset_mm / 1000
+    girder_curves = [m.curve((x, 6, 0), (x, 2, 0)), m.curve((x, 2, 0), (x, 0, 0))]
+    m.link(joist, [joist_curve])
+    m.link(girder, girder_curves)
+    m.node((0, 2, 0), [joist_curve], (1, 1, 1, 0, 0, 0))
+    m.node((3, 2, 0), [joist_curve], name="joist end")
+    m.node((x, 2, 0), girder_curves, name="girder node")
+    m.node((x, 6, 0), [girder_curves[0]], (1, 1, 1, 0, 0, 0))
+    m.node((x, 0, 0), [girder_curves[1]], (0, 0, 1, 0, 0, 0))
+    summary = m.read([joist, girder])
+    on_joist, on_girder = summary.by_member[joist.GlobalId], summary.by_member[girder.GlobalId]
+    if matched:
+        support = on_joist.supports[-1]
+        assert (support.x, support.source) == (pytest.approx(3 * IN_PER_M, rel=EXACT), "joint with IfcBeam 'G1'")
+        assert (support.carrier, support.carrier_x) == (girder.GlobalId, pytest.approx(4 * IN_PER_M, rel=EXACT))
+        assert any(note.startswith("IfcBeam 'J1' frames into this member at x = 157.5 in") for note in on_girder.notes)
+    else:
+        assert [s.x for s in on_joist.supports] == pytest.approx([0.0], abs=1e-9)
+        assert not any("frames into" in note for note in on_girder.notes)
+    assert len(on_girder.supports) == 2
+
+
+def test_collinear_joists_meeting_end_to_end_get_no_carrier():
+    """Two 3 m joists in a row share a free node at x = 3 m = 118.11024 in, the end of both: each
+    gets a pinned support there without a carrier (as before), and the reaction is carried no further."""
+    m = Model("IFC4", "kN-m")
+    left, right = m.beam((0, 0, 0), (3, 0, 0), "J1"), m.beam((3, 0, 0), (6, 0, 0), "J2")
+    left_curve, right_curve = m.curve((0, 0, 0), (3, 0, 0)), m.curve((3, 0, 0), (6, 0, 0))
+    m.link(left, [left_curve])
+    m.link(right, [right_curve])
+    m.node((0, 0, 0), [left_curve], (1, 1, 1, 0, 0, 0))
+    m.node((3, 0, 0), [left_curve, right_curve])
+    m.node((6, 0, 0), [right_curve], (0, 0, 1, 0, 0, 0))
+    summary = m.read([left, right])
+    on_left, on_right = summary.by_member[left.GlobalId], summary.by_member[right.GlobalId]
+    assert [(s.x, s.source, s.carrier) for s in on_left.supports] == [
+        (pytest.approx(0.0, abs=1e-9), "boundary condition of IfcStructuralPointConnection 'N'", ""),
+        (pytest.approx(3 * IN_PER_M, rel=EXACT), "joint with IfcBeam 'J2'", ""),
+    ]
+    assert [(s.x, s.source, s.carrier) for s in on_right.supports] == [
+        (pytest.approx(0.0, abs=1e-9), "joint with IfcBeam 'J1'", ""),
+        (pytest.approx(3 * IN_PER_M, rel=EXACT), "boundary condition of IfcStructuralPointConnection 'N'", ""),
+    ]
+    assert all(math.isnan(s.carrier_x) for s in on_left.supports + on_right.supports)
+    assert "support at x = 118.1 in: joint with IfcBeam 'J2' (taken as pinned); its reaction is not carried " \
+        "further (it is at the other members' ends)" in on_left.notes
+    assert not any("frames into" in note for note in on_left.notes + on_right.notes)
+
+
+def test_a_carrier_that_is_not_checked_carries_nothing():
+    """As the single-curve girder case, with only the joist passed in (the girder is, say, steel):
+    the joist keeps its pinned support at 3 m = 118.11024 in without a carrier, and a note says the
+    reaction is not carried further; the girder has no entry."""
+    summary, joist, girder = joist_on_girder(checked=("joist",))
+    on_joist = summary.by_member[joist.GlobalId]
+    support = on_joist.supports[-1]
+    assert (support.x, support.kind, support.source) == (
+        pytest.approx(3 * IN_PER_M, rel=EXACT), "pinned", "joint with IfcBeam 'G1'"
+    )
+    assert (support.carrier, math.isnan(support.carrier_x)) == ("", True)
+    assert "support at x = 118.1 in: joint with IfcBeam 'G1' (taken as pinned); its reaction is not carried " \
+        "further (IfcBeam 'G1': not a checked member)" in on_joist.notes
+    assert girder.GlobalId not in summary.by_member
 
 
 def test_ifc4_load_configuration_gives_a_linear_load():

@@ -50,35 +50,38 @@ def test_rebuild_is_byte_identical_to_the_committed_file(tmp_path):
 
 
 # Hand-counted from sample_models/README.md (exact counts, tolerance 0), members J-A-01, G-A-01,
-# BJ-A-01, HDR-A-01 in that order:
-# point connections 3 + 2 + 2 + 2 = 9; curve actions 2 (J-A-01 D, L) + 2 (BJ-A-01 D, L) = 4, one
-# linear force each; point actions 5 x 2 (G-A-01 D, L) + 2 (HDR-A-01 D, S) = 12, one single force
-# each; vertices: J-A-01 3 (0, 12, 24 ft), G-A-01 2 ends + 5 load points, BJ-A-01 3 (0, 10, 14 ft),
-# HDR-A-01 2 ends + 1 load point = 16; topology representations 4 edges + 9 connections + 12 point
-# actions = 25; product shapes 4 beams + 25 = 29; groups: model + 3 load cases = 4;
-# activity relationships one per action = 16; boundary conditions shared: pinned, roller = 2.
+# BJ-A-01, HDR-A-01, J-A-02 in that order:
+# point connections: supports 3 + 2 + 2 + 2 + 1 = 10, and the joint of J-A-02 on G-A-01 = 11;
+# curve actions 2 (J-A-01 D, L) + 2 (BJ-A-01 D, L) + 2 (J-A-02 D, L) = 6, one linear force each;
+# point actions 4 x 2 (G-A-01 D, L at 2, 4, 8, 10 ft) + 2 (HDR-A-01 D, S) = 10, one single force
+# each; vertices: J-A-01 3 (0, 12, 24 ft), G-A-01 2 ends + 4 load points + the joint at 6 ft,
+# BJ-A-01 3 (0, 10, 14 ft), HDR-A-01 2 ends + 1 load point, J-A-02 its start (its end is the
+# joint's vertex) = 17; topology representations 5 edges + 11 connections + 10 point actions = 26;
+# product shapes 5 beams + 26 = 31; groups: model + 3 load cases = 4; activity relationships one
+# per action = 16; member-connection relationships one per support (10) + two at the joint = 12;
+# boundary conditions shared: pinned, roller = 2.
 CLASS_COUNTS = {
-    "IfcBeam": 4,
+    "IfcBeam": 5,
     "IfcStructuralAnalysisModel": 1,
-    "IfcStructuralCurveMember": 4,
-    "IfcStructuralPointConnection": 9,
+    "IfcStructuralCurveMember": 5,
+    "IfcStructuralPointConnection": 11,
     "IfcBoundaryNodeCondition": 2,
     "IfcStructuralLoadCase": 3,
-    "IfcStructuralCurveAction": 4,
-    "IfcStructuralLoadLinearForce": 4,
-    "IfcStructuralPointAction": 12,
-    "IfcStructuralLoadSingleForce": 12,
-    "IfcEdge": 4,
-    "IfcVertexPoint": 16,
-    "IfcTopologyRepresentation": 25,
-    "IfcProductDefinitionShape": 29,
-    "IfcRelAssignsToProduct": 4,
-    "IfcRelConnectsStructuralMember": 9,
+    "IfcStructuralCurveAction": 6,
+    "IfcStructuralLoadLinearForce": 6,
+    "IfcStructuralPointAction": 10,
+    "IfcStructuralLoadSingleForce": 10,
+    "IfcEdge": 5,
+    "IfcVertexPoint": 17,
+    "IfcTopologyRepresentation": 26,
+    "IfcProductDefinitionShape": 31,
+    "IfcRelAssignsToProduct": 5,
+    "IfcRelConnectsStructuralMember": 12,
     "IfcRelConnectsStructuralActivity": 16,
     "IfcRelAssignsToGroup": 4,
     "IfcRelServicesBuildings": 1,
     "IfcMaterial": 2,
-    "IfcPropertySet": 4,
+    "IfcPropertySet": 5,
 }
 
 
@@ -148,9 +151,20 @@ def _vertex_of(product):
 
 
 def _supports(member) -> list:
-    """[(x in, condition name)] of the member's point connections, by x."""
+    """[(x in, condition name)] of the member's point connections with a boundary condition, by x."""
     connections = [r.RelatedStructuralConnection for r in member.ConnectedBy]
-    return sorted((_position_along(member, _vertex_of(c)), c.AppliedCondition.Name) for c in connections)
+    return sorted(
+        (_position_along(member, _vertex_of(c)), c.AppliedCondition.Name) for c in connections if c.AppliedCondition
+    )
+
+
+def _joints(member) -> list:
+    """[(x in, connection)] of the member's point connections without a boundary condition, by x."""
+    connections = [r.RelatedStructuralConnection for r in member.ConnectedBy]
+    return sorted(
+        ((_position_along(member, _vertex_of(c)), c) for c in connections if c.AppliedCondition is None),
+        key=lambda joint: joint[0],
+    )
 
 
 def _load_type(action) -> str:
@@ -184,7 +198,7 @@ def members(model):
     out = {}
     for beam in model.by_type("IfcBeam"):
         member = _curve_member(beam)
-        out[beam.Name] = {"beam": beam, "member": member, "supports": _supports(member),
+        out[beam.Name] = {"beam": beam, "member": member, "supports": _supports(member), "joints": _joints(member),
                           "loads": _loads(member), "section": _section(beam)}
     return out
 
@@ -259,14 +273,23 @@ SUPPORTS_FT = {
     "G-A-01": [(0.0, "pinned"), (12.0, "roller")],
     "BJ-A-01": [(0.0, "pinned"), (10.0, "roller")],
     "HDR-A-01": [(0.0, "pinned"), (6.0, "roller")],
+    "J-A-02": [(0.0, "pinned")],
 }
-UNIFORM_PLF = {"J-A-01": {"D": 40 / 3, "L": 160 / 3}, "BJ-A-01": {"D": 20.0, "L": 80.0}, "G-A-01": {}, "HDR-A-01": {}}
+UNIFORM_PLF = {
+    "J-A-01": {"D": 40 / 3, "L": 160 / 3},
+    "BJ-A-01": {"D": 20.0, "L": 80.0},
+    "G-A-01": {},
+    "HDR-A-01": {},
+    "J-A-02": {"D": 20.0, "L": 80.0},
+}
 POINTS_FT_LBF = {
-    "G-A-01": sorted([("D", x, 80.0) for x in (2, 4, 6, 8, 10)] + [("L", x, 320.0) for x in (2, 4, 6, 8, 10)]),
+    "G-A-01": sorted([("D", x, 80.0) for x in (2, 4, 8, 10)] + [("L", x, 320.0) for x in (2, 4, 8, 10)]),
     "HDR-A-01": [("D", 2.0, 1800.0), ("S", 2.0, 3000.0)],
     "J-A-01": [],
     "BJ-A-01": [],
+    "J-A-02": [],
 }
+JOINTS_FT = {"G-A-01": [6.0], "J-A-02": [8.0]}  # the one joint: mid-span of the girder, end of the joist
 
 
 @pytest.mark.parametrize("name", list(SUPPORTS_FT))
@@ -279,6 +302,36 @@ def test_supports_and_loads_read_back(members, name):
     assert uniform == pytest.approx(UNIFORM_PLF[name], rel=1e-12)
     points = [(t, x / FT, P) for t, x, P in m["loads"]["point"]]
     assert points == [(t, pytest.approx(x, abs=1e-9), pytest.approx(P, rel=1e-12)) for t, x, P in POINTS_FT_LBF[name]]
+    assert [x / FT for x, _ in m["joints"]] == pytest.approx(JOINTS_FT.get(name, []), abs=1e-9)
+
+
+def test_j_a_02_frames_into_the_girder_through_one_shared_connection(members):
+    """The joint is one IfcStructuralPointConnection without a condition, joined by both curve
+    members; its vertex is the very IfcVertexPoint the joist's edge ends on (README, "Joint")."""
+    ((x_girder, joint),), ((x_joist, same),) = members["G-A-01"]["joints"], members["J-A-02"]["joints"]
+    assert joint == same and joint.Name == "J-A-02 on G-A-01"
+    assert {r.RelatingStructuralMember.Name for r in joint.ConnectsStructuralMembers} == {"G-A-01", "J-A-02"}
+    assert _vertex_of(joint) == _edge(members["J-A-02"]["member"]).EdgeEnd
+    assert (x_girder, x_joist) == (pytest.approx(72.0, abs=1e-9), pytest.approx(96.0, abs=1e-9))
+
+
+def test_the_reader_makes_the_girder_carry_j_a_02(model, members):
+    """ifccheck.ifc.structural reads the joint as J-A-02's pinned support at its end (96 in) carried by
+    G-A-01 at 72 in along it (positions as in the README; 1e-9 in)."""
+    from ifccheck.ifc.structural import read_structural
+    from ifccheck.ifc.units import model_units
+    from ifccheck.rules import load_rules
+
+    beams = {m["beam"].GlobalId: m["beam"] for m in members.values()}
+    summary = read_structural(model, beams, model_units(model).to_core, load_rules())
+    joist = summary.by_member[members["J-A-02"]["beam"].GlobalId]
+    assert [(s.x, s.carrier, s.carrier_x) for s in joist.supports] == [
+        (pytest.approx(0.0, abs=1e-9), "", pytest.approx(math.nan, nan_ok=True)),
+        (pytest.approx(96.0, abs=1e-9), members["G-A-01"]["beam"].GlobalId, pytest.approx(72.0, abs=1e-9)),
+    ]
+    carriers = [s.carrier for name, m in members.items() if name != "J-A-02"
+                for s in summary.by_member[m["beam"].GlobalId].supports]
+    assert carriers == [""] * 9  # nothing else bears on another member
 
 
 # ------------------------------------------------------------------------------------------
@@ -337,13 +390,21 @@ def test_two_span_joist_j_a_01(members):
 def test_girder_g_a_01(members):
     """Statics of a simple span under point loads: R = sum P / 2 (symmetric), M(mid) = R L/2 -
     sum P (L/2 - a)+; midspan deflection sum P a (3L^2 - 4a^2) / (48 EI), a from the nearer support
-    (AWC Design Aid No. 6, "Simple Beam - Concentrated Load at Any Point" superposed). README: 1000 lb,
-    43,200 in-lb, bending 0.686 (DF-L No.1 Fb 1000, Emin 620,000, E 1,700,000 psi, NDS Supplement 2018
-    Table 4A; lu = 24 in, le = 2.06 lu), live deflection 0.1206 in."""
-    m = members["G-A-01"]
+    (AWC Design Aid No. 6, "Simple Beam - Concentrated Load at Any Point" superposed). The loads are
+    the girder's own four pairs and, at the joint, J-A-02's reactions w l / 2 per load type (simple
+    span). README: 1000 lb, 43,200 in-lb, bending 0.686 (DF-L No.1 Fb 1000, Emin 620,000, E 1,700,000
+    psi, NDS Supplement 2018 Table 4A; lu = 24 in, le = 2.06 lu), live deflection 0.1206 in."""
+    m, joist = members["G-A-01"], members["J-A-02"]
     (x0, _), (x1, _) = m["supports"]
     L = x1 - x0
-    points = m["loads"]["point"]
+    ((x_joint, _),) = m["joints"]
+    l_joist = _length(joist["member"])
+    reactions = [(t, x_joint, w * l_joist / 2) for t, w in joist["loads"]["uniform"].items()]
+    assert sorted(reactions) == [
+        ("D", pytest.approx(72.0, abs=1e-9), pytest.approx(80.0, rel=1e-9)),
+        ("L", pytest.approx(72.0, abs=1e-9), pytest.approx(320.0, rel=1e-9)),
+    ]
+    points = m["loads"]["point"] + reactions
     R = sum(P for _, _, P in points) / 2
     assert R == pytest.approx(1000.0, rel=1e-12)
     M_mid = R * L / 2 - sum(P * max(L / 2 - x, 0.0) for _, x, P in points)
@@ -381,6 +442,26 @@ def test_balcony_joist_bj_a_01(members):
     assert M_pos / _S(b, d) / (900 * 1.1 * 1.15) == pytest.approx(0.577, abs=0.0005)
     tip = wL * a**3 * (4 * L + 3 * a) / (24 * 1_600_000 * _I(b, d))
     assert tip == pytest.approx(0.1211, abs=0.00005)
+
+
+def test_store_joist_j_a_02(members):
+    """AWC Design Aid No. 6, "Simple Beam - Uniformly Distributed Load": R = wl/2, M = wl^2/8,
+    deflection 5wl^4/(384EI). l = 96 in from the north wall to the girder's axis. README: R 80 / 320
+    lb (D / L), M 9,600 in-lb; bending 0.293 (2x12 DF-L No.2: Fb 900 psi, CF 1.0, Cr 1.15, NDS
+    Supplement 2018 Table 4A; CL = 1, braced); live deflection 0.0259 in / (l/360) = 0.097."""
+    m = members["J-A-02"]
+    ((x0, _),), ((x1, _),) = m["supports"], m["joints"]
+    l = x1 - x0
+    assert l == pytest.approx(96.0, abs=1e-9)
+    wD, wL = m["loads"]["uniform"]["D"], m["loads"]["uniform"]["L"]
+    assert (wD * l / 2, wL * l / 2) == (pytest.approx(80.0, rel=1e-9), pytest.approx(320.0, rel=1e-9))
+    M = (wD + wL) * l**2 / 8
+    assert M == pytest.approx(9_600.0, rel=1e-9)
+    b, d = m["section"]
+    assert M / _S(b, d) / (900 * 1.0 * 1.15) == pytest.approx(0.293, abs=0.0005)
+    live = 5 * wL * l**4 / (384 * 1_600_000 * _I(b, d))
+    assert live == pytest.approx(0.0259, abs=0.00005)
+    assert live / (l / 360) == pytest.approx(0.097, abs=0.0005)
 
 
 def test_header_hdr_a_01(members):

@@ -20,6 +20,13 @@ Conventions of the records:
 * Structural items are placed by their own ObjectPlacement, else by the SharedPlacement of their
   analysis model (IFC4 and later), else they are in world coordinates. GLOBAL_COORDS loads and
   IFC4 curve-member Axis directions are in the analysis model's global system (its SharedPlacement).
+* A node restrained vertically (IfcBoundaryNodeCondition) is a support. A node that holds nothing
+  but joins another member at this member's end is a pinned support; when the node lies inside the
+  length of another checked member (not at its ends), that member carries this one: the support
+  names it (``carrier``, ``carrier_x`` along it) and the design check applies the reaction to it as
+  a point load, carried members first. A joint with a member that is not checked, or of member ends
+  only, carries the reaction no further. Members meet at the same IfcStructuralPointConnection, or
+  at distinct point connections within the tolerance of each other (found on a position grid).
 
 The load type of each load group comes from rules/load_groups.toml (ActionSource, ActionType, then
 the group's name, then the group it belongs to). Odd data never stops the reading: what cannot be
@@ -111,10 +118,8 @@ def read_structural(model: ifcopenshell.file, members: dict, to_core: dict, rule
             f"the structural-analysis data cannot be read ({type(exc).__name__}: {exc}); it is not used"
         )
         return summary
-    for global_id, element in members.items() if reader is not None else ():
-        analysis = reader.read(element)
-        if analysis is not None:
-            summary.by_member[global_id] = analysis
+    if reader is not None:
+        summary.by_member = reader.read_all(members)
     return summary
 
 
@@ -505,13 +510,13 @@ class _Links:
             for physical, curve in pairs:
                 self.by_physical[physical.id()].append(curve)
                 self.physical_of[curve.id()] = physical
-        self._grid: dict = defaultdict(list)  # cell -> [(_Curve, 0 for start or 1 for end)]
+        self._ends = _Grid()  # (_Curve, 0 for start or 1 for end) by position
         self._claimed: set = set()
         for entity in model.by_type("IfcStructuralCurveMember"):
             if entity.id() not in self.physical_of:
                 curve = _quietly(curve_of, entity)
                 for end, point in enumerate((curve.start, curve.end) if curve else ()):
-                    self._grid[_cell(point)].append((curve, end))
+                    self._ends.add(point, (curve, end))
 
     def by_relation(self, element) -> list:
         return self.by_physical.get(element.id(), [])
@@ -530,7 +535,7 @@ class _Links:
 
     def _next(self, point: np.ndarray, axis: _Axis, tolerance: float, used: set) -> Optional[tuple]:
         best = None
-        for curve, end in self._near(point, tolerance):
+        for curve, end in self._ends.near(point, tolerance):
             if curve.entity.id() in used or curve.entity.id() in self._claimed:
                 continue
             far = curve.end if end == 0 else curve.start
@@ -540,16 +545,27 @@ class _Links:
                 best = (curve, far, advance)
         return best[:2] if best is not None else None
 
-    def _near(self, point: np.ndarray, tolerance: float) -> list:
+
+class _Grid:
+    """Items by position in cubes of _GRID_IN, so that those near a point are found without comparing all pairs."""
+
+    def __init__(self) -> None:
+        self._cells: dict = defaultdict(list)  # cell -> [(point, item)]
+
+    def add(self, point: np.ndarray, item) -> None:
+        self._cells[_cell(point)].append((point, item))
+
+    def near(self, point: np.ndarray, tolerance: float) -> list:
+        """The items within ``tolerance`` of ``point``, cell by cell in the order added."""
         reach = math.ceil(tolerance / _GRID_IN)
         centre = _cell(point)
         found = []
         for dx in range(-reach, reach + 1):
             for dy in range(-reach, reach + 1):
                 for dz in range(-reach, reach + 1):
-                    for curve, end in self._grid.get((centre[0] + dx, centre[1] + dy, centre[2] + dz), ()):
-                        if np.linalg.norm((curve.start, curve.end)[end] - point) <= tolerance:
-                            found.append((curve, end))
+                    for place, item in self._cells.get((centre[0] + dx, centre[1] + dy, centre[2] + dz), ()):
+                        if np.linalg.norm(place - point) <= tolerance:
+                            found.append(item)
         return found
 
 
@@ -590,8 +606,35 @@ class _Held:
 # --- the member reader -----------------------------------------------------------------------
 
 
+@dataclass
+class _Linked:
+    """A checked member linked to its curve members, with what has been read of it so far."""
+
+    global_id: str
+    label: str
+    result: AnalysisInput
+    chain: Optional[_Chain]  # None when none of its curve members can be read
+
+
+@dataclass(frozen=True)
+class _Joined:
+    """Another member at a node: its name, and its link when it is a checked member."""
+
+    label: str
+    checked: Optional[_Linked]
+
+    def carries_at(self, point: np.ndarray) -> Optional[float]:
+        """The node's x along this checked member when it lies inside its length (not at an end), else None."""
+        if self.checked is None or self.checked.chain is None:
+            return None
+        axis = self.checked.chain.axis
+        x = axis.x(point)
+        return None if axis.at_end(x) else x
+
+
 class _MemberReader:
-    """Reads the analysis data of one physical member after another; curve members are read once."""
+    """Links every checked member to its curve members, then reads the analysis data of one after
+    another; curve members are read once."""
 
     def __init__(
         self, model: ifcopenshell.file, to_core: dict, groups: _LoadGroups, summary: StructuralSummary
@@ -610,6 +653,12 @@ class _MemberReader:
         }
         self._curves: dict = {}
         self.links = _Links(model, self.curve)
+        self._checked: dict = {}  # curve member id -> _Linked of the checked member it belongs to
+        self._nodes = _Grid()  # every IfcStructuralPointConnection by position
+        for connection in model.by_type("IfcStructuralPointConnection"):
+            point = _quietly(self._node_point, connection)
+            if point is not None:
+                self._nodes.add(point, connection)
 
     def curve(self, entity) -> _Curve:
         key = entity.id()
@@ -620,8 +669,30 @@ class _MemberReader:
             self._curves[key] = _Curve(start=edge[0], end=edge[1], entity=entity)
         return self._curves[key]
 
-    def read(self, element) -> Optional[AnalysisInput]:
-        """The member's AnalysisInput, or None when no curve member describes it."""
+    def _node_point(self, connection) -> Optional[np.ndarray]:
+        return self.places.vertex(connection, self.places.frame(connection))
+
+    def read_all(self, members: dict) -> dict:
+        """GlobalId -> AnalysisInput of each member a curve member describes. Every member is linked
+        before any is read, so that each knows the checked members it frames into."""
+        linked = {}
+        for global_id, element in members.items():
+            member = self._link(global_id, element)
+            if member is not None:
+                linked[global_id] = member
+                for curve in member.chain.curves if member.chain is not None else ():
+                    self._checked[curve.entity.id()] = member
+        for member in linked.values():
+            self._read_linked(member)
+        _note_carried(linked)
+        for member in linked.values():
+            result = member.result
+            result.notes, result.problems = _collapsed(result.notes), _collapsed(result.problems)
+            self.summary.supports += len(result.supports)
+        return {global_id: member.result for global_id, member in linked.items()}
+
+    def _link(self, global_id: str, element) -> Optional[_Linked]:
+        """The member with its chain of curve members, or None when no curve member describes it."""
         try:
             axis, axis_problem = _physical_axis(element, self.to_inch), ""
         except Exception as exc:  # noqa: BLE001 - odd geometry: the relation may still link it
@@ -637,25 +708,27 @@ class _MemberReader:
         if axis_problem:
             result.problems.append(axis_problem)
         try:
-            self._read_linked(entities, axis, how, result)
+            chain = self._chain(entities, axis, result)
         except Exception as exc:  # noqa: BLE001 - odd data of one member must not stop the others
+            chain = None
             result.problems.append(f"structural-analysis data cannot be read ({type(exc).__name__}: {exc})")
-        result.notes, result.problems = _collapsed(result.notes), _collapsed(result.problems)
+        if chain is not None:
+            result.length = chain.axis.length
+            result.notes.append(f"{len(chain.curves)} analysis member(s) linked by {how}")
         if how == "IfcRelAssignsToProduct":
             self.summary.linked_by_relation += 1
         else:
             self.summary.linked_by_geometry += 1
-        self.summary.supports += len(result.supports)
-        return result
+        return _Linked(global_id, _label(element), result, chain)
 
-    def _read_linked(self, entities: list, axis: Optional[_Axis], how: str, result: AnalysisInput) -> None:
-        chain = self._chain(entities, axis, result)
-        if chain is None:
+    def _read_linked(self, member: _Linked) -> None:
+        if member.chain is None:
             return
-        result.length = chain.axis.length
-        result.notes.append(f"{len(chain.curves)} analysis member(s) linked by {how}")
-        self._read_supports(chain, result)
-        self._read_loads(chain, result)
+        try:
+            self._read_supports(member.chain, member.result)
+            self._read_loads(member.chain, member.result)
+        except Exception as exc:  # noqa: BLE001 - odd data of one member must not stop the others
+            member.result.problems.append(f"structural-analysis data cannot be read ({type(exc).__name__}: {exc})")
 
     def _chain(self, entities: list, axis: Optional[_Axis], result: AnalysisInput) -> Optional[_Chain]:
         curves = []
@@ -707,10 +780,10 @@ class _MemberReader:
 
     def _support(self, connection, rels: list, chain: _Chain, result: AnalysisInput) -> Optional[SupportRecord]:
         """A restrained node is a support. A node that holds nothing (no condition, or all free) but
-        joins another member is a pinned support at this member's end (it frames in there)."""
+        joins another member is a pinned support at this member's end (see :meth:`_joint_support`)."""
         if not connection.is_a("IfcStructuralPointConnection"):
             raise ModelReadError(f"{connection.is_a()} is not read (only point connections are)")
-        point = self.places.vertex(connection, self.places.frame(connection))
+        point = self._node_point(connection)
         if point is None:
             raise ModelReadError("it has no IfcVertexPoint")
         x = chain.axis.x(point)
@@ -719,20 +792,77 @@ class _MemberReader:
             return SupportRecord(
                 x=x, kind="fixed" if rotation else "pinned", source=f"boundary condition of {_label(connection)}"
             )
-        others = self._other_members(connection, chain)
-        if not others:
+        joined = self._joined(connection, point, chain)
+        if not joined:
             return None
         if chain.axis.at_end(x):
-            result.notes.append(
-                f"support at x = {x:.1f} in: this member frames into {others} (taken as pinned); its reaction is not "
-                "yet applied to that member as a point load (a later issue)"
-            )
-            return SupportRecord(x=x, kind="pinned", source=f"joint with {others}")
-        result.notes.append(
-            f"{others} frame(s) into this member at x = {x:.1f} in; the load it takes there is not applied "
-            "as a point load yet (a later issue)"
-        )
+            return self._joint_support(x, point, joined, result)
+        self._note_joined_inside(x, point, joined, result)
         return None
+
+    def _joined(self, connection, point: np.ndarray, chain: _Chain) -> list:
+        """The other members at a node, each once: those joined to this very connection, then those
+        at other point connections within the member's tolerance of it (found on the grid)."""
+        own = chain.ids
+        nodes = {node.id(): node for node in (connection, *self._nodes.near(point, chain.axis.tolerance))}
+        joined: dict = {}
+        for node in nodes.values():
+            for rel in node.ConnectsStructuralMembers or ():
+                member = rel.RelatingStructuralMember
+                if member.id() in own:
+                    continue
+                checked = self._checked.get(member.id())
+                physical = self.links.physical_of.get(member.id())
+                if checked is not None:
+                    joined.setdefault(checked.global_id, _Joined(checked.label, checked))
+                elif physical is not None:
+                    joined.setdefault(physical.id(), _Joined(_label(physical), None))
+                else:
+                    joined.setdefault(member.id(), _Joined(_label(member), None))
+        return list(joined.values())
+
+    def _joint_support(self, x: float, point: np.ndarray, joined: list, result: AnalysisInput) -> SupportRecord:
+        """A pinned support where this member's end meets other members. When the node lies inside the
+        length of a checked member, that member carries this one: the reaction is its point load."""
+        names = ", ".join(j.label for j in joined)
+        carriers = [(j, j.carries_at(point)) for j in joined if j.carries_at(point) is not None]
+        if not carriers:
+            unchecked = [j.label for j in joined if j.checked is None]
+            why = f"{', '.join(unchecked)}: not a checked member" if unchecked else "it is at the other members' ends"
+            result.notes.append(
+                f"support at x = {x:.1f} in: joint with {names} (taken as pinned); its reaction is not carried "
+                f"further ({why})"
+            )
+            return SupportRecord(x=x, kind="pinned", source=f"joint with {names}")
+        (carrier, carrier_x), others = carriers[0], carriers[1:]
+        result.notes.append(
+            f"support at x = {x:.1f} in: this member frames into {carrier.label} (taken as pinned); its reaction is "
+            f"applied to that member as a point load at x = {carrier_x:.1f} in along it"
+        )
+        if others:
+            result.notes.append(
+                f"the node at x = {x:.1f} in also lies inside {', '.join(j.label for j, _ in others)}; "
+                f"the whole reaction goes to {carrier.label}"
+            )
+        return SupportRecord(
+            x=x, kind="pinned", source=f"joint with {names}", carrier=carrier.checked.global_id, carrier_x=carrier_x
+        )
+
+    def _note_joined_inside(self, x: float, point: np.ndarray, joined: list, result: AnalysisInput) -> None:
+        """Notes on members met inside this one's length that bring it no load (those that frame into
+        it are noted by :func:`_note_carried`)."""
+        unchecked = [j.label for j in joined if j.checked is None]
+        crossing = [j.label for j in joined if j.carries_at(point) is not None]
+        if unchecked:
+            result.notes.append(
+                f"{', '.join(unchecked)} join(s) this member at x = {x:.1f} in; no load from them is applied here "
+                "(not checked members)"
+            )
+        if crossing:
+            result.notes.append(
+                f"{', '.join(crossing)} cross(es) this member at x = {x:.1f} in; no load passes between them there "
+                "(the node lies inside both)"
+            )
 
     def _restraint(self, connection, rels: list, axis: _Axis) -> tuple:
         """(vertical translation held, rotation across the member held) of the node and the member's ends there."""
@@ -883,13 +1013,14 @@ class _MemberReader:
         return [("point", down * self.to_lbf, x, math.nan, math.nan)], other
 
     def _takes_joint_load(self, connection, chain: _Chain, x: float, action, result: AnalysisInput) -> bool:
-        """A load on a node goes to this member inside its length, or at its end where no other member joins."""
+        """A load on a node goes to this member inside its length, or at its end where no other member
+        joins this connection (it then adds to the reaction there, which goes on to any carrier)."""
         others = self._other_members(connection, chain)
         if not chain.axis.at_end(x) or not others:
             return True
         result.notes.append(
             f"{_label(action)} acts on the joint with {others} at this member's end and is not applied to it "
-            "(load transfer between members is a later issue)"
+            "(a member the joint lies inside of takes it; where the members only end there, none does)"
         )
         return False
 
@@ -990,6 +1121,18 @@ class _MemberReader:
             raise ModelReadError(f"{_label(curve.entity)} has its local z direction along its axis")
         z = z / np.linalg.norm(z)
         return np.column_stack((x, np.cross(z, x), z))
+
+
+def _note_carried(linked: dict) -> None:
+    """Tells each carrying member, from the supports of the members bearing on it, what frames into it."""
+    for member in linked.values():
+        for support in member.result.supports:
+            carrier = linked.get(support.carrier)
+            if carrier is not None:
+                carrier.result.notes.append(
+                    f"{member.label} frames into this member at x = {support.carrier_x:.1f} in; its reaction is "
+                    "applied here as a point load (the design check analyses the carried member first)"
+                )
 
 
 def _local_z_direction(entity) -> Optional[tuple]:
