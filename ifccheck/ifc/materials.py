@@ -144,11 +144,11 @@ class MaterialReader:
     def read(self, definition, source: str) -> tuple:
         """(MaterialInfo, MaterialKind) of a material definition found on the ``source`` ("occurrence" or "type")."""
         shared = _set_of_usage(definition)  # a usage belongs to one occurrence; its set is shared
-        key = shared.id()
+        key = (shared.id(), source)
         if key not in self._by_definition:
-            self._by_definition[key] = self._classify_definition(shared)
-        info, kind = self._by_definition[key]
-        return replace(info, source=source), kind
+            info, kind = self._classify_definition(shared)
+            self._by_definition[key] = replace(info, source=source), kind
+        return self._by_definition[key]
 
     def _classify_definition(self, definition) -> tuple:
         """(MaterialInfo, MaterialKind) of the material that decides: the first timber, else non-timber one.

@@ -5,12 +5,19 @@ One pass over IfcBeam and IfcMember (subtypes included). Each element is either 
 check) or a :class:`SkippedElement` with the reason: not a bending member type, LoadBearing FALSE,
 non-timber material, or an axis steeper than ``max_bending_slope``. Odd data never stops the
 pass: what cannot be read becomes a problem of that member.
+
+Large models have tens of thousands of members, so the pass reads each thing once: the
+relationships of the whole model in one pass per class (:class:`_Relations`), each shared type,
+material, property set, placement, pair of directions and profile once, and what every member
+has by attribute position (see ifccheck.ifc.sections).
 """
 
 from __future__ import annotations
 
+import contextlib
+import gc
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from typing import Optional
 
 import ifcopenshell
@@ -21,7 +28,18 @@ from ..errors import ModelReadError
 from ..model import INPUT_PROPS, INPUT_PSET, MaterialInfo, MemberRecord, ReadResult, SkippedElement
 from ..units import to_temperature_f
 from .materials import UNKNOWN, MaterialReader
-from .sections import SectionReader, axis_matrix, body_of, placed, profile_set_of
+from .sections import (
+    ITEMS,
+    REPRESENTATIONS,
+    SectionReader,
+    ShapeReader,
+    attribute_position,
+    check_positions,
+    fixed_position,
+    identified,
+    profile_set_of,
+    rotation_key,
+)
 from .units import format_length, format_section, model_temperature_unit, model_units, property_unit_to_core, temperature_unit
 
 #: IfcMember types that carry bending; every other IfcMember type (POST, STUD, BRACE, ...) is skipped
@@ -59,6 +77,13 @@ _ABSURD_LENGTH = 1e5  # in (over 2.5 km)
 _ABSOLUTE_ZERO_F = -459.67
 _LEVEL = 1e-6  # degrees: a slope below this is a level member (rounding of placements)
 
+# attributes of every member read by position (see ifccheck.ifc.sections)
+_GLOBAL_ID = fixed_position("IfcRoot", "GlobalId", 0)
+_NAME = fixed_position("IfcRoot", "Name", 2)
+_OBJECT_TYPE = fixed_position("IfcObject", "ObjectType", 4)
+_OBJECT_PLACEMENT = fixed_position("IfcProduct", "ObjectPlacement", 5)
+_REPRESENTATION = fixed_position("IfcProduct", "Representation", 6)
+
 
 def read_model(model: ifcopenshell.file, rules: dict) -> ReadResult:
     """Every IfcBeam and IfcMember of ``model`` as a candidate MemberRecord or a SkippedElement.
@@ -66,12 +91,32 @@ def read_model(model: ifcopenshell.file, rules: dict) -> ReadResult:
     ``rules`` is the dict of :func:`ifccheck.rules.load_rules`; its
     ``defaults.max_bending_slope`` (degrees) separates bending members from posts and studs.
     """
-    reader = _ModelReader(model, float(rules["defaults"]["max_bending_slope"]))
+    check_positions(model.schema_identifier)
+    elements = (*model.by_type("IfcBeam"), *model.by_type("IfcMember"))
     members, skipped = [], []
-    for element in (*model.by_type("IfcBeam"), *model.by_type("IfcMember")):
-        outcome = reader.read(element)
-        (skipped if isinstance(outcome, SkippedElement) else members).append(outcome)
+    with _no_cycle_collection():
+        reader = _ModelReader(model, float(rules["defaults"]["max_bending_slope"]), _Relations(model, len(elements)))
+        for element in elements:
+            outcome = reader.read(element)
+            (skipped if isinstance(outcome, SkippedElement) else members).append(outcome)
     return ReadResult(schema=model.schema_identifier, units=reader.units, members=members, skipped=skipped)
+
+
+@contextlib.contextmanager
+def _no_cycle_collection():
+    """Pause Python's cycle collector during the pass.
+
+    The pass makes a few dozen small objects per member, and the records it keeps grow with the
+    model; the collector would scan them over and over (about a tenth of the pass on large models).
+    Reference counting still frees what the pass drops; any cycle is collected once it is back on.
+    """
+    was_enabled = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if was_enabled:
+            gc.enable()
 
 
 @dataclass(frozen=True)
@@ -91,6 +136,16 @@ class _Input:
     usable: bool = False
     note: str = ""
     problem: str = ""
+
+
+@dataclass
+class _Inputs:
+    """The input property sets of a member as read: values and their sources, notes and problems."""
+
+    values: dict = field(default_factory=dict)
+    sources: dict = field(default_factory=dict)
+    notes: list = field(default_factory=list)
+    problems: list = field(default_factory=list)
 
 
 @dataclass(frozen=True)
@@ -117,25 +172,128 @@ class _TypeInfo:
     predefined: str
     material: tuple  # (MaterialInfo, MaterialKind, definition)
     common: dict  # property name -> _Found or None, from its common property sets
+    inputs: Optional[ifcopenshell.entity_instance]  # its input property set
 
 
-_NO_TYPE = _TypeInfo(psets={}, predefined="", material=(MaterialInfo(), UNKNOWN, None), common={})
+_NO_MATERIAL = MaterialInfo()
+_NO_TYPE = _TypeInfo(psets={}, predefined="", material=(_NO_MATERIAL, UNKNOWN, None), common={}, inputs=None)
+
+#: relationship classes gathered once per model: (class, attribute naming the elements, attribute
+#: naming what is related to them); IfcRelDefinesByProperties without subtypes, as the IFC2X3
+#: IfcRelOverridesProperties is not read
+_GATHERED = {
+    "definitions": ("IfcRelDefinesByProperties", "RelatedObjects", "RelatingPropertyDefinition"),
+    "types": ("IfcRelDefinesByType", "RelatedObjects", "RelatingType"),
+    "materials": ("IfcRelAssociatesMaterial", "RelatedObjects", "RelatingMaterial"),
+    "containers": ("IfcRelContainedInSpatialStructure", "RelatedElements", "RelatingStructure"),
+}
+
+
+#: in a gathered map: no relationship of the class names the element, or its own inverse
+#: attribute must decide (several relationships name it, or the class was not gathered)
+_UNRELATED, _ASK_ELEMENT = object(), object()
+
+
+class _Relations:
+    """What the relationships of a model relate to each element, read in one pass per relationship class.
+
+    Looking up an inverse attribute (IsDefinedBy, HasAssociations, ...) costs microseconds per
+    element; one pass over each relationship class builds maps from element id to the related
+    entity instead. A class with more relationships than there are candidates is not gathered
+    (its map is None), and an element named by several relationships of one class is read through
+    its inverse attribute as before, so the order the model gives them still decides.
+    """
+
+    def __init__(self, model: ifcopenshell.file, candidates: int) -> None:
+        self.ifc2x3 = model.schema == "IFC2X3"
+        for name, (ifc_class, elements, related) in _GATHERED.items():
+            relationships = model.by_type(ifc_class, include_subtypes=ifc_class != "IfcRelDefinesByProperties")
+            gathered = _gather(relationships, elements, related) if len(relationships) <= candidates else None
+            setattr(self, name, gathered)
+        self._storeys: dict = {}
+
+    def type_and_definitions(self, element) -> tuple:
+        """(type object or None, property and quantity set definitions) of an occurrence."""
+        key = element.id()
+        element_type, definition = _related(self.types, key), _related(self.definitions, key)
+        if element_type is _ASK_ELEMENT or definition is _ASK_ELEMENT:
+            return _defined_by(element, self.ifc2x3)
+        element_type = None if element_type is _UNRELATED else element_type
+        if definition is _UNRELATED:
+            return element_type, []
+        return element_type, list(definition) if isinstance(definition, tuple) else [definition]  # IFC4 set of sets
+
+    def material(self, element):
+        """The material definition associated with the element itself, or None."""
+        material = _related(self.materials, element.id())
+        if material is _ASK_ELEMENT:
+            return ifc_element.get_material(element, should_inherit=False)
+        return None if material is _UNRELATED else material
+
+    def storey_name(self, element) -> str:
+        """Name of the IfcBuildingStorey containing the element (directly, via spaces, or via its assembly)."""
+        structure = _related(self.containers, element.id())
+        if structure is _UNRELATED or structure is _ASK_ELEMENT:  # the assembly or host decides, or several
+            return _storey_name(element)
+        if structure is None:
+            return ""
+        key = structure.id()
+        if key not in self._storeys:
+            self._storeys[key] = _storey_name_of_structure(structure)
+        return self._storeys[key]
+
+
+def _gather(relationships, elements: str, related: str) -> dict:
+    """Element id -> the entity related to it by ``relationships`` (_ASK_ELEMENT where several are)."""
+    found: dict = {}
+    for relationship in relationships:
+        entity = getattr(relationship, related)
+        for element in getattr(relationship, elements) or ():
+            key = element.id()
+            found[key] = _ASK_ELEMENT if key in found else entity
+    return found
+
+
+def _related(gathered: Optional[dict], key: int):
+    """The entity related to element ``key`` in a gathered map, _UNRELATED or _ASK_ELEMENT."""
+    return gathered.get(key, _UNRELATED) if gathered is not None else _ASK_ELEMENT
+
+
+def _defined_by(element, ifc2x3: bool) -> tuple:
+    """(type object or None, property and quantity set definitions) from the element's inverse attributes."""
+    element_type, definitions = None, []
+    for rel in getattr(element, "IsDefinedBy", None) or ():
+        kind = rel.is_a()
+        if kind == "IfcRelDefinesByProperties":
+            relating = rel.RelatingPropertyDefinition
+            definitions += list(relating) if isinstance(relating, tuple) else [relating]  # IFC4 set of sets
+        elif kind == "IfcRelDefinesByType":  # IFC2X3
+            element_type = rel.RelatingType
+    if element_type is None and not ifc2x3:
+        typed_by = getattr(element, "IsTypedBy", None)
+        element_type = typed_by[0].RelatingType if typed_by else None
+    return element_type, definitions
 
 
 class _ModelReader:
-    """Reads elements of one model, caching per placement, type object, material, profile and pset."""
+    """Reads elements of one model, each type object, material, property set, profile and placement once."""
 
-    def __init__(self, model: ifcopenshell.file, max_slope: float) -> None:
+    def __init__(self, model: ifcopenshell.file, max_slope: float, relations: _Relations) -> None:
         self.model = model
+        self.relations = relations
         self.units = model_units(model)
         self.max_slope = max_slope
         self.to_inch = self.units.to_core["length"]
-        self.ifc2x3 = model.schema == "IFC2X3"
+        self.schema = model.schema_identifier
         self.materials = MaterialReader()
         self.sections = SectionReader(self.to_inch)
-        self._placements: dict = {}
+        self.shapes = ShapeReader()
         self._types: dict = {}
         self._inputs_by_pset: dict = {}
+        self._inputs: dict = {}
+        self._profile_sets: dict = {}
+        self._section_notes: dict = {}
+        self._axes: dict = {}
 
     def read(self, element):
         try:
@@ -144,9 +302,11 @@ class _ModelReader:
             return _unreadable(element, exc)
 
     def _read(self, element):
-        element_type, own_psets = self._relations(element)
+        element_type, definitions = self.relations.type_and_definitions(element)
+        own_psets = _by_name(definitions)
         type_info = self._type_info(element_type)
-        predefined = _predefined_type(element, type_info)
+        ifc_class = element.is_a()
+        predefined = _predefined_type(self._own_predefined_type(element, ifc_class), type_info)
         is_beam = element.is_a("IfcBeam")
         if not is_beam and predefined not in BENDING_MEMBER_TYPES:
             return _skip(element, f"IfcMember of type {predefined} is not a bending member", "not_bending")
@@ -155,49 +315,34 @@ class _ModelReader:
         if load_bearing is not None and load_bearing.prop.NominalValue.wrappedValue is False:
             return _skip(element, f"LoadBearing is FALSE ({load_bearing.pset} on the {load_bearing.source})", "not_load_bearing")
         record = MemberRecord(
-            global_id=element.GlobalId,
-            name=element.Name or "",
-            ifc_class=element.is_a(),
+            global_id=element.get_argument(_GLOBAL_ID),
+            name=element.get_argument(_NAME) or "",
+            ifc_class=ifc_class,
             predefined_type=predefined,
             storey="",
-            material=MaterialInfo(),
+            material=_NO_MATERIAL,
             section=None,
         )
-        _guarded(record, "ifccheck_DesignInput", lambda: self._read_inputs(record, own_psets, type_info.psets))
-        material = _guarded(record, "material", lambda: self._material(element, type_info))
-        info, kind, definition = material or (MaterialInfo(), UNKNOWN, None)
+        _guarded(record, "ifccheck_DesignInput", self._read_inputs, record, own_psets, type_info)
+        material = _guarded(record, "material", self._material, element, type_info)
+        info, kind, definition = material or (_NO_MATERIAL, UNKNOWN, None)
         record.material = _with_input_identity(info, record.inputs)
         if record.material.kind == "non_timber":
             return _skip(element, f"non-timber material '{info.name}' ({kind.material_kind})", "non_timber")
         _note_material(record)
-        geometry = _guarded(record, "geometry", lambda: self._geometry(element))
+        geometry = _guarded(record, "geometry", self._geometry, element)
         body, object_matrix, axis = geometry or (None, None, None)
         record.slope = axis.slope if axis is not None else 0.0
         if record.slope > self.max_slope:
             reason = f"axis {record.slope:.1f}° from horizontal, steeper than {self.max_slope:g}°"
             return _skip(element, reason, "not_bending")
         if body is not None:
-            _guarded(record, "section", lambda: self._read_section(record, definition, body, object_matrix, own_psets))
-        _guarded(record, "span", lambda: self._read_span(record, common, own_psets, type_info, axis))
-        record.storey = _guarded(record, "storey", lambda: _storey_name(element)) or ""
+            _guarded(record, "section", self._read_section, record, definition, body, object_matrix, own_psets)
+        _guarded(record, "span", self._read_span, record, common, own_psets, type_info, axis)
+        record.storey = _guarded(record, "storey", self.relations.storey_name, element) or ""
         return record
 
-    # --- relations, type objects and geometry --------------------------------------------------
-
-    def _relations(self, element) -> tuple:
-        """(type object or None, property and quantity sets by name) of an occurrence, in one pass."""
-        element_type, definitions = None, []
-        for rel in getattr(element, "IsDefinedBy", None) or ():
-            kind = rel.is_a()
-            if kind == "IfcRelDefinesByProperties":
-                relating = rel.RelatingPropertyDefinition
-                definitions += list(relating) if isinstance(relating, tuple) else [relating]  # IFC4 set of sets
-            elif kind == "IfcRelDefinesByType":  # IFC2X3
-                element_type = rel.RelatingType
-        if element_type is None and not self.ifc2x3:
-            typed_by = getattr(element, "IsTypedBy", None)
-            element_type = typed_by[0].RelatingType if typed_by else None
-        return element_type, _by_name(definitions)
+    # --- type objects and geometry -----------------------------------------------------------
 
     def _type_info(self, element_type) -> _TypeInfo:
         if element_type is None:
@@ -213,8 +358,17 @@ class _ModelReader:
                 for pset_names in _COMMON_PSETS.values()
             }
             predefined = _user_defined(getattr(element_type, "PredefinedType", None), element_type.ElementType)
-            self._types[key] = _TypeInfo(psets=psets, predefined=predefined, material=material, common=common)
+            inputs = _property_set(psets.get(INPUT_PSET))
+            self._types[key] = _TypeInfo(psets=psets, predefined=predefined, material=material, common=common, inputs=inputs)
         return self._types[key]
+
+    def _own_predefined_type(self, element, ifc_class: str) -> str:
+        """The occurrence's PredefinedType (IFC2X3 beams and members have none), or what its ObjectType names."""
+        position = attribute_position(self.schema, ifc_class, "PredefinedType")
+        predefined = element.get_argument(position) if position is not None else None
+        if predefined not in _UNSET_TYPES:
+            return predefined
+        return _user_defined(predefined, element.get_argument(_OBJECT_TYPE))
 
     def _common_property(self, name: str, pset_names: tuple, own_psets: dict, type_info: _TypeInfo) -> Optional[_Found]:
         """A common property of the occurrence, else of its type."""
@@ -223,35 +377,41 @@ class _ModelReader:
 
     def _material(self, element, type_info: _TypeInfo) -> tuple:
         """(MaterialInfo, MaterialKind, definition): the occurrence's own material, else its type's."""
-        definition = ifc_element.get_material(element, should_inherit=False)
+        definition = self.relations.material(element)
         if definition is None:
             return type_info.material
         return (*self.materials.read(definition, "occurrence"), definition)
 
-    def _object_matrix(self, placement) -> np.ndarray:
-        """World matrix of an IfcLocalPlacement chain (model length units), cached per placement."""
-        if placement is None:
-            return axis_matrix(None)
-        key = placement.id()
-        if key not in self._placements:
-            if not placement.is_a("IfcLocalPlacement"):
-                raise ModelReadError(f"object placement {placement.is_a()} is not supported")
-            parent = self._object_matrix(placement.PlacementRelTo)
-            self._placements[key] = placed(parent, placement.RelativePlacement.get_info(recursive=True))
-        return self._placements[key]
-
     def _geometry(self, element) -> tuple:
-        object_matrix = self._object_matrix(element.ObjectPlacement)
-        shape = element.Representation
-        representations = shape.Representations if shape is not None else ()
-        body = body_of(representations, object_matrix)
-        return body, object_matrix, _member_axis(representations, object_matrix, body)
+        object_matrix = self.shapes.object_matrix(element.get_argument(_OBJECT_PLACEMENT))
+        shape = element.get_argument(_REPRESENTATION)
+        representations = identified(shape.get_argument(REPRESENTATIONS)) if shape is not None else []
+        body = self.shapes.body(representations, object_matrix)
+        return body, object_matrix, self._member_axis(representations, object_matrix, body)
+
+    def _member_axis(self, representations: list, object_matrix: np.ndarray, body) -> Optional[_Axis]:
+        """The member's axis from its 'Axis' representation, else from its body extrusion."""
+        points = _axis_points(representations)
+        axis = self._axis_along(points, object_matrix) if points is not None else None
+        if axis is not None:
+            return axis
+        if body.extrusion is not None:
+            vector = body.extrusion.vector()
+            return _Axis(float(np.linalg.norm(vector)), vector, "extrusion")
+        return None
+
+    def _axis_along(self, points: list, object_matrix: np.ndarray) -> Optional[_Axis]:
+        """:func:`_axis_along`, once per axis points and rotation (parallel members of one length share it)."""
+        key = (rotation_key(object_matrix), tuple(points))
+        if key not in self._axes:
+            self._axes[key] = _axis_along(points, object_matrix)
+        return self._axes[key]
 
     # --- section, span, inputs ---------------------------------------------------------------
 
     def _read_section(self, record: MemberRecord, definition, body, object_matrix, own_psets: dict) -> None:
         quantity_sets = {name: pset for name, pset in own_psets.items() if pset.is_a("IfcElementQuantity")}
-        reading = self.sections.read(profile_set_of(definition), body, object_matrix, quantity_sets)
+        reading = self.sections.read(self._profile_set(definition), body, object_matrix, quantity_sets)
         if reading.problem:
             record.problems.append(reading.problem)
             return
@@ -266,9 +426,24 @@ class _ModelReader:
         elif section.plies > 1:
             record.notes.append(f"built-up of {section.plies} plies side by side in the {section.source}")
         record.section = section
-        named = f" ('{section.profile_name}')" if section.profile_name else ""
-        size = format_section(section.width, section.depth, self.units.system)
-        record.notes.append(f"section {size} from {section.source}{named}")
+        record.notes.append(self._section_note(section))
+
+    def _section_note(self, section) -> str:
+        """The note naming a section and its source, written once per distinct section."""
+        if section not in self._section_notes:
+            named = f" ('{section.profile_name}')" if section.profile_name else ""
+            size = format_section(section.width, section.depth, self.units.system)
+            self._section_notes[section] = f"section {size} from {section.source}{named}"
+        return self._section_notes[section]
+
+    def _profile_set(self, definition):
+        """The material profile set of a material definition (see profile_set_of), found once per definition."""
+        if definition is None:
+            return None
+        key = definition.id()
+        if key not in self._profile_sets:
+            self._profile_sets[key] = profile_set_of(definition)
+        return self._profile_sets[key]
 
     def _read_span(self, record: MemberRecord, common: tuple, own_psets: dict, type_info: _TypeInfo, axis) -> None:
         found = self._common_property("Span", common, own_psets, type_info)
@@ -303,21 +478,34 @@ class _ModelReader:
             raise ModelReadError(f"{number!r} is not a positive length below {_ABSURD_LENGTH:g} in")
         return value
 
-    def _read_inputs(self, record: MemberRecord, own_psets: dict, type_psets: dict) -> None:
+    def _read_inputs(self, record: MemberRecord, own_psets: dict, type_info: _TypeInfo) -> None:
         """The input property set, occurrence over type per property, converted to core units."""
+        type_pset, own_pset = type_info.inputs, _property_set(own_psets.get(INPUT_PSET))
+        key = (type_pset.id() if type_pset is not None else None, own_pset.id() if own_pset is not None else None)
+        if key not in self._inputs:  # members of one type mostly share the same sets
+            self._inputs[key] = self._combined_inputs(type_pset, own_pset)
+        given = self._inputs[key]
+        record.problems += given.problems
+        record.notes += given.notes
+        record.inputs.update(given.values)
+        record.input_sources.update(given.sources)
+
+    def _combined_inputs(self, type_pset, own_pset) -> "_Inputs":
+        """The inputs of a type's and an occurrence's input property sets, occurrence over type per property."""
         given = {}
-        for source, psets in (("type", type_psets), ("occurrence", own_psets)):
-            pset = psets.get(INPUT_PSET)
-            if pset is not None and pset.is_a("IfcPropertySet"):
+        for source, pset in (("type", type_pset), ("occurrence", own_pset)):
+            if pset is not None:
                 given.update({name: (read, source) for name, read in self._pset_inputs(pset).items()})
+        inputs = _Inputs()
         for name, (read, source) in given.items():
             where = f"{INPUT_PSET}.{name} on the {source}"
             if read.problem:
-                record.problems.append(f"{where} is not used: {read.problem}")
+                inputs.problems.append(f"{where} is not used: {read.problem}")
             elif read.note:
-                record.notes.append(f"{where} {read.note}")
+                inputs.notes.append(f"{where} {read.note}")
             if read.usable:
-                record.inputs[name], record.input_sources[name] = read.value, source
+                inputs.values[name], inputs.sources[name] = read.value, source
+        return inputs
 
     def _pset_inputs(self, pset) -> dict:
         """Each property of one input property set, read once per set (sets are often shared)."""
@@ -390,6 +578,11 @@ def _by_name(definitions) -> dict:
     return found
 
 
+def _property_set(definition):
+    """``definition`` when it is an IfcPropertySet, else None (quantity sets hold no inputs)."""
+    return definition if definition is not None and definition.is_a("IfcPropertySet") else None
+
+
 def _first_property(name: str, pset_names: tuple, psets: dict, source: str) -> Optional[_Found]:
     """The first single value named ``name`` that has a value, in the sets ``pset_names`` in order."""
     for pset_name in pset_names:
@@ -402,19 +595,22 @@ def _first_property(name: str, pset_names: tuple, psets: dict, source: str) -> O
     return None
 
 
+#: predefined types that let ObjectType / ElementType name the type
+_UNSET_TYPES = (None, "", "USERDEFINED", "NOTDEFINED")
+
+
 def _user_defined(predefined, written) -> str:
     """A USERDEFINED (or, in IFC2X3, absent) predefined type takes the type name written in
     ObjectType / ElementType when that names a known type, e.g. JOIST on an IFC2X3 beam type."""
-    if predefined in (None, "", "USERDEFINED", "NOTDEFINED") and written:
+    if predefined in _UNSET_TYPES and written:
         name = str(written).strip().upper().replace(" ", "_")
         if name in KNOWN_PREDEFINED_TYPES:
             return name
     return predefined or ""
 
 
-def _predefined_type(element, type_info: _TypeInfo) -> str:
-    """The occurrence's PredefinedType, else its type's (IFC2X3 occurrences have none), else NOTDEFINED."""
-    own = _user_defined(getattr(element, "PredefinedType", None), element.ObjectType)
+def _predefined_type(own: str, type_info: _TypeInfo) -> str:
+    """The occurrence's own predefined type, else its type's, else NOTDEFINED."""
     if own and own != "NOTDEFINED":
         return own
     if type_info.predefined and type_info.predefined != "NOTDEFINED":
@@ -452,32 +648,31 @@ def _note_material(record: MemberRecord) -> None:
         record.notes.append(f"timber by {material.matched}")
 
 
-def _member_axis(representations, object_matrix: np.ndarray, body) -> Optional[_Axis]:
-    """The member's axis from its 'Axis' representation, else from its body extrusion.
+def _axis_along(points: list, object_matrix: np.ndarray) -> Optional[_Axis]:
+    """The axis along ``points`` (object coordinates) of a member placed by ``object_matrix``; None if of no length.
 
     Object placements are rotations without scale, so the axis length is taken in object coordinates.
     """
-    points = _axis_points(representations)
-    if points is not None:
-        length = sum(math.dist(a, b) for a, b in zip(points, points[1:]))
-        if length > 0:
-            chord = np.subtract(points[-1], points[0])
-            return _Axis(length, object_matrix[:3, :3] @ chord, "axis")
-    if body.extrusion is not None:
-        vector = body.extrusion.vector()
-        return _Axis(float(np.linalg.norm(vector)), vector, "extrusion")
-    return None
+    length = sum(math.dist(a, b) for a, b in zip(points, points[1:]))
+    if not length > 0:
+        return None
+    chord = tuple(end - start for start, end in zip(points[0], points[-1]))
+    return _Axis(length, object_matrix[:3, :3] @ chord, "axis")
 
 
 #: curves of an 'Axis' representation whose points the reader follows
 _AXIS_CURVES = frozenset({"IfcPolyline", "IfcIndexedPolyCurve", "IfcTrimmedCurve"})
 
 
-def _axis_points(representations) -> Optional[list]:
-    """Points (object coordinates, 3-tuples) of the first curve of the 'Axis' representation."""
-    for representation in representations:
-        if representation.RepresentationIdentifier == "Axis" and representation.Items:
-            curve = representation.Items[0]
+def _axis_points(representations: list) -> Optional[list]:
+    """Points (object coordinates, 3-tuples) of the first curve of the 'Axis' representation.
+
+    ``representations`` are (identifier, representation) pairs, see :func:`sections.identified`.
+    """
+    for identifier, representation in representations:
+        items = representation.get_argument(ITEMS) if identifier == "Axis" else None
+        if items:
+            curve = items[0]
             points = _curve_points(curve.get_info(recursive=True)) if curve.is_a() in _AXIS_CURVES else None
             if points is not None and len(points) >= 2:
                 return points
@@ -523,6 +718,15 @@ def _storey_name(element) -> str:
     return (storey.Name or "") if storey is not None else ""
 
 
+def _storey_name_of_structure(structure) -> str:
+    """Name of the IfcBuildingStorey that is, or aggregates, a spatial structure element ("" for none)."""
+    while structure:
+        if structure.is_a("IfcBuildingStorey"):
+            return structure.Name or ""
+        structure = ifc_element.get_aggregate(structure)
+    return ""
+
+
 def _finite_number(raw) -> float:
     if raw is None:  # how ifcopenshell reads a NaN written in the file
         raise ModelReadError("its value is not a number (NaN or unreadable)")
@@ -562,10 +766,10 @@ def _checked_temperature(value_f: float) -> float:
     return value_f
 
 
-def _guarded(record: MemberRecord, what: str, read):
-    """Run one reading step; when the model's data breaks it, record a problem and go on."""
+def _guarded(record: MemberRecord, what: str, read, *args):
+    """Run one reading step, ``read(*args)``; when the model's data breaks it, record a problem and go on."""
     try:
-        return read()
+        return read(*args)
     except Exception as exc:  # noqa: BLE001 - any failure on odd data becomes a stated problem
         record.problems.append(f"{what} cannot be read ({type(exc).__name__}: {exc})")
         return None

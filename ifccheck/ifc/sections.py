@@ -3,11 +3,13 @@
 A section comes from the material profile set (occurrence usage or type), else from the body's
 extrusion, else from base quantities (Width and Depth or Height). The depth d is the dimension
 that lies in the vertical plane: the world directions of the profile's axes decide it. Where no
-placement says otherwise the profile's YDim is the depth (the IFC convention).
+placement says otherwise the profile's YDim is the depth (the IFC convention). The placements and
+bodies these need are read here too (ShapeReader).
 """
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass
 from typing import Optional
@@ -32,21 +34,71 @@ _BOOLEANS = frozenset({"IfcBooleanResult", "IfcBooleanClippingResult"})
 #: solid rectangles: IfcRectangleProfileDef and its rounded subtype (the hollow subtype is a tube)
 _RECTANGLES = frozenset({"IfcRectangleProfileDef", "IfcRoundedRectangleProfileDef"})
 
-# Geometry is read as plain dicts from get_info(recursive=True), ifcopenshell's fast C++ path,
-# once per placement, solid and profile: per-attribute access is the reader's main cost.
+# What every member has (placement, representations, body solid) is read by attribute position:
+# entity.get_argument(i) is several times faster than entity.Name, which looks the name up in the
+# schema on each call (entity[i] adds a bounds check in Python). A subtype keeps its supertype's
+# attributes first, so a position holds for subtypes too; check_positions confirms every one
+# against the model's schema. Profiles are read once each as get_info dicts, and each placement
+# and pair of directions once per model.
+_FIXED: list = []  # (class, attribute, position) of each attribute read by position
+
+
+def fixed_position(ifc_class: str, name: str, position: int) -> int:
+    """``position``, where attribute ``name`` of ``ifc_class`` (and its subtypes) is read; see check_positions."""
+    _FIXED.append((ifc_class, name, position))
+    return position
+
+
+@functools.lru_cache(maxsize=None)
+def attribute_position(schema: str, ifc_class: str, name: str) -> Optional[int]:
+    """Position of attribute ``name`` in entities of ``ifc_class`` in ``schema``; None if the class has none."""
+    declaration = ifcopenshell.schema_by_name(schema).declaration_by_name(ifc_class)
+    names = [attribute.name() for attribute in declaration.all_attributes()]
+    return names.index(name) if name in names else None
+
+
+@functools.lru_cache(maxsize=None)
+def check_positions(schema: str) -> None:
+    """Raise ModelReadError unless every fixed_position holds in ``schema``."""
+    for ifc_class, name, position in _FIXED:
+        if attribute_position(schema, ifc_class, name) != position:
+            raise ModelReadError(
+                f"schema {schema} does not have {ifc_class}.{name} at position {position}; ifccheck cannot read it"
+            )
+
+
+_PLACEMENT_REL_TO = fixed_position("IfcLocalPlacement", "PlacementRelTo", 0)
+_RELATIVE_PLACEMENT = fixed_position("IfcLocalPlacement", "RelativePlacement", 1)
+_LOCATION = fixed_position("IfcPlacement", "Location", 0)
+_AXIS = fixed_position("IfcAxis2Placement3D", "Axis", 1)
+_REF_DIRECTION = {
+    "IfcAxis2Placement3D": fixed_position("IfcAxis2Placement3D", "RefDirection", 2),
+    "IfcAxis2Placement2D": fixed_position("IfcAxis2Placement2D", "RefDirection", 1),
+}
+_COORDINATES = fixed_position("IfcCartesianPoint", "Coordinates", 0)
+_DIRECTION_RATIOS = fixed_position("IfcDirection", "DirectionRatios", 0)
+REPRESENTATIONS = fixed_position("IfcProductRepresentation", "Representations", 2)
+_IDENTIFIER = fixed_position("IfcRepresentation", "RepresentationIdentifier", 1)
+ITEMS = fixed_position("IfcRepresentation", "Items", 3)
+_SWEPT_AREA = fixed_position("IfcExtrudedAreaSolid", "SweptArea", 0)
+_POSITION = fixed_position("IfcExtrudedAreaSolid", "Position", 1)
+_EXTRUDED_DIRECTION = fixed_position("IfcExtrudedAreaSolid", "ExtrudedDirection", 2)
+_DEPTH = fixed_position("IfcExtrudedAreaSolid", "Depth", 3)
 
 
 @dataclass(frozen=True)
 class Extrusion:
-    """An IfcExtrudedAreaSolid of a member's body (as a get_info dict) and the world matrix of its Position."""
+    """An IfcExtrudedAreaSolid of a member's body, its profile and the world matrix of its Position."""
 
-    solid: dict
+    solid: ifcopenshell.entity_instance
+    profile: ifcopenshell.entity_instance  # its SweptArea
     matrix: np.ndarray
 
     def vector(self) -> np.ndarray:
         """The extrusion (direction times Depth) in world coordinates, model length units."""
-        direction = np.array(self.solid["ExtrudedDirection"]["DirectionRatios"], dtype=float)
-        return self.matrix[:3, :3] @ (direction * (float(self.solid["Depth"]) / _length(direction)))
+        ratios = self.solid.get_argument(_EXTRUDED_DIRECTION).get_argument(_DIRECTION_RATIOS)
+        direction = np.array(ratios, dtype=float)
+        return self.matrix[:3, :3] @ (direction * (float(self.solid.get_argument(_DEPTH)) / _length(direction)))
 
 
 @dataclass(frozen=True)
@@ -87,24 +139,79 @@ class _Rectangle:
         )
 
 
-def body_of(representations, object_matrix: np.ndarray) -> Body:
-    """The body representation and its first IfcExtrudedAreaSolid (also inside mapped items and booleans)."""
-    representation = _body_representation(representations)
-    if representation is None:
-        return Body(None, None)
-    for item in representation.Items:
-        extrusion = _extrusion_in(item, object_matrix)
-        if extrusion is not None:
-            return Body(representation, extrusion)
-    return Body(representation, None)
+def identified(representations) -> list:
+    """(RepresentationIdentifier, representation) of each representation of a product shape."""
+    return [(representation.get_argument(_IDENTIFIER), representation) for representation in representations]
 
 
-def _body_representation(representations):
-    for representation in representations:
-        if representation.RepresentationIdentifier == "Body":
+class ShapeReader:
+    """Reads members' placements and bodies, each placement and each pair of directions once."""
+
+    def __init__(self) -> None:
+        self._placements: dict = {}  # IfcLocalPlacement id -> world matrix
+        self._frames: dict = {}  # (Axis id, RefDirection id) -> frame matrix (see _frame)
+
+    def object_matrix(self, placement) -> np.ndarray:
+        """World matrix of an IfcLocalPlacement chain (model length units)."""
+        if placement is None:
+            return _IDENTITY
+        key = placement.id()
+        if key not in self._placements:
+            if not placement.is_a("IfcLocalPlacement"):
+                raise ModelReadError(f"object placement {placement.is_a()} is not supported")
+            parent = self.object_matrix(placement.get_argument(_PLACEMENT_REL_TO))
+            self._placements[key] = parent @ self.placement_matrix(placement.get_argument(_RELATIVE_PLACEMENT))
+        return self._placements[key]
+
+    def placement_matrix(self, placement) -> np.ndarray:
+        """4x4 matrix of an IfcAxis2Placement3D or 2D entity, as :func:`axis_matrix` gives for its dict."""
+        kind, location = placement.is_a(), placement.get_argument(_LOCATION)
+        _check_placement(kind, location.is_a())
+        axis = placement.get_argument(_AXIS) if kind == "IfcAxis2Placement3D" else None
+        reference = placement.get_argument(_REF_DIRECTION[kind])
+        key = (axis.id() if axis is not None else None, reference.id() if reference is not None else None)
+        if key not in self._frames:
+            self._frames[key] = _frame(_axes(_ratios(axis), _ratios(reference), placement.id()))
+        return _located(self._frames[key], location.get_argument(_COORDINATES))
+
+    def body(self, representations: list, object_matrix: np.ndarray) -> Body:
+        """The body representation and its first IfcExtrudedAreaSolid (also inside mapped items and booleans).
+
+        ``representations`` are the (identifier, representation) pairs of :func:`identified`.
+        """
+        representation = _body_representation(representations)
+        if representation is None:
+            return Body(None, None)
+        for item in representation.get_argument(ITEMS):
+            extrusion = self._extrusion_in(item, object_matrix)
+            if extrusion is not None:
+                return Body(representation, extrusion)
+        return Body(representation, None)
+
+    def _extrusion_in(self, item, matrix: np.ndarray) -> Optional[Extrusion]:
+        kind = item.is_a()
+        if kind in _EXTRUSIONS:
+            position = item.get_argument(_POSITION)
+            if position is not None:
+                matrix = matrix @ self.placement_matrix(position)
+            return Extrusion(item, item.get_argument(_SWEPT_AREA), matrix)
+        if kind in _BOOLEANS:
+            return self._extrusion_in(item.FirstOperand, matrix)
+        if kind == "IfcMappedItem":
+            inner = matrix @ _mapped_item_matrix(item)
+            for sub_item in item.MappingSource.MappedRepresentation.Items:
+                extrusion = self._extrusion_in(sub_item, inner)
+                if extrusion is not None:
+                    return extrusion
+        return None
+
+
+def _body_representation(representations: list):
+    for identifier, representation in representations:
+        if identifier == "Body":
             return representation
-    for representation in representations:
-        if representation.RepresentationIdentifier not in _NOT_BODY:
+    for identifier, representation in representations:
+        if identifier not in _NOT_BODY:
             return representation
     return None
 
@@ -116,30 +223,9 @@ def _item_classes(item) -> list:
     return [item.is_a()]
 
 
-def _extrusion_in(item, matrix: np.ndarray) -> Optional[Extrusion]:
-    kind = item.is_a()
-    if kind in _EXTRUSIONS:
-        solid = item.get_info(recursive=True)
-        return Extrusion(solid, placed(matrix, solid["Position"]))
-    if kind in _BOOLEANS:
-        return _extrusion_in(item.FirstOperand, matrix)
-    if kind == "IfcMappedItem":
-        inner = matrix @ _mapped_item_matrix(item)
-        for sub_item in item.MappingSource.MappedRepresentation.Items:
-            extrusion = _extrusion_in(sub_item, inner)
-            if extrusion is not None:
-                return extrusion
-    return None
-
-
 def _mapped_item_matrix(item) -> np.ndarray:
     matrix = ifc_placement.get_mappeditem_transformation(item)  # None for a 2D mapping target
     return matrix if matrix is not None else axis_matrix(item.MappingSource.MappingOrigin.get_info(recursive=True))
-
-
-def placed(parent: np.ndarray, placement: Optional[dict]) -> np.ndarray:
-    """``parent`` times the matrix of an axis placement dict (``parent`` itself when there is none)."""
-    return parent if placement is None else parent @ axis_matrix(placement)
 
 
 def axis_matrix(placement: Optional[dict]) -> np.ndarray:
@@ -149,30 +235,55 @@ def axis_matrix(placement: Optional[dict]) -> np.ndarray:
     """
     if placement is None:
         return _IDENTITY
-    kind = placement["type"]
     location = placement["Location"]
-    if kind not in ("IfcAxis2Placement3D", "IfcAxis2Placement2D") or location["type"] != "IfcCartesianPoint":
-        raise ModelReadError(f"placement {kind} at {location['type']} is not supported")
-    axis = placement.get("Axis")
-    reference = placement["RefDirection"]
-    z = _unit(axis["DirectionRatios"]) if axis is not None else (0.0, 0.0, 1.0)
-    ref = (*reference["DirectionRatios"], 0.0)[:3] if reference is not None else (1.0, 0.0, 0.0)
+    _check_placement(placement["type"], location["type"])
+    axis, reference = placement.get("Axis"), placement["RefDirection"]
+    ratios = [direction["DirectionRatios"] if direction is not None else None for direction in (axis, reference)]
+    return _located(_frame(_axes(*ratios, placement["id"])), location["Coordinates"])
+
+
+def _check_placement(kind: str, location_kind: str) -> None:
+    if kind not in _REF_DIRECTION or location_kind != "IfcCartesianPoint":
+        raise ModelReadError(f"placement {kind} at {location_kind} is not supported")
+
+
+def _ratios(direction) -> Optional[tuple]:
+    return direction.get_argument(_DIRECTION_RATIOS) if direction is not None else None
+
+
+def _axes(axis: Optional[tuple], reference: Optional[tuple], placement_id: int) -> tuple:
+    """Unit (x, y, z) axes of a placement from its Axis and RefDirection ratios (IFC's defaults for None)."""
+    z = _unit(axis) if axis is not None else (0.0, 0.0, 1.0)
+    ref = (*reference, 0.0)[:3] if reference is not None else (1.0, 0.0, 0.0)
     if z is None:
-        raise ModelReadError(f"placement #{placement['id']} has a zero-length Axis")
+        raise ModelReadError(f"placement #{placement_id} has a zero-length Axis")
     along_z = sum(r * c for r, c in zip(ref, z))
     x = _unit([r - along_z * c for r, c in zip(ref, z)])
     if x is None:
-        raise ModelReadError(f"placement #{placement['id']} has its RefDirection along its Axis")
+        raise ModelReadError(f"placement #{placement_id} has its RefDirection along its Axis")
     y = (z[1] * x[2] - z[2] * x[1], z[2] * x[0] - z[0] * x[2], z[0] * x[1] - z[1] * x[0])
-    coordinates = (*location["Coordinates"], 0.0)[:3]
+    return x, y, z
+
+
+def _frame(axes: tuple) -> np.ndarray:
+    """4x4 matrix of unit axes (x, y, z) at the origin."""
+    x, y, z = axes
     return np.array(
         (
-            (x[0], y[0], z[0], coordinates[0]),
-            (x[1], y[1], z[1], coordinates[1]),
-            (x[2], y[2], z[2], coordinates[2]),
+            (x[0], y[0], z[0], 0.0),
+            (x[1], y[1], z[1], 0.0),
+            (x[2], y[2], z[2], 0.0),
             (0.0, 0.0, 0.0, 1.0),
         )
     )
+
+
+def _located(frame: np.ndarray, location: tuple) -> np.ndarray:
+    """A new matrix of ``frame`` moved to a location (2D or 3D coordinates)."""
+    coordinates = (*location, 0.0)[:3]
+    matrix = frame.copy()
+    matrix[0, 3], matrix[1, 3], matrix[2, 3] = coordinates[0], coordinates[1], coordinates[2]
+    return matrix
 
 
 def _unit(vector) -> Optional[tuple]:
@@ -199,12 +310,18 @@ def _describe(profile: dict) -> str:
 
 
 class SectionReader:
-    """Reads members' sections, reading each profile and profile set once."""
+    """Reads members' sections, reading each profile and profile set once.
+
+    A section read from profiles depends only on them and on how they are turned (the rotation
+    of their placement), so it is read once per profile and rotation: members of one size in one
+    direction share it.
+    """
 
     def __init__(self, to_inch: float) -> None:
         self.to_inch = to_inch  # the model's length factor
         self._rectangles: dict = {}
         self._profile_sets: dict = {}
+        self._readings: dict = {}
 
     def read(self, profile_set, body: Body, object_matrix: np.ndarray, quantity_sets: dict) -> SectionReading:
         """The member's section in inches: from the profile set, else the extrusion, else base quantities.
@@ -212,19 +329,29 @@ class SectionReader:
         ``quantity_sets`` maps names to the element's IfcElementQuantity entities.
         """
         plies = self._profile_set_plies(profile_set)
+        extrusion = body.extrusion
         if plies:
-            return self._profile_set_section(plies, body.extrusion, object_matrix)
-        if body.extrusion is not None:
-            return self._extrusion_section(body.extrusion)
+            body_profile = (extrusion.profile.id(), rotation_key(extrusion.matrix)) if extrusion is not None else None
+            key = (profile_set.id(), body_profile, rotation_key(object_matrix))
+            return self._once(key, self._profile_set_section, plies, extrusion, object_matrix)
+        if extrusion is not None:
+            key = (extrusion.profile.id(), rotation_key(extrusion.matrix))
+            return self._once(key, self._extrusion_section, extrusion)
         from_quantities = _quantity_section(quantity_sets, self.to_inch)
         if from_quantities is not None:
             return from_quantities
         return SectionReading(None, f"no rectangular section found (profile none: {body.description()}, no Width/Depth quantities)")
 
-    def _rectangle(self, profile: dict) -> _Rectangle:
-        key = profile["id"]
+    def _once(self, key: tuple, read, *args) -> SectionReading:
+        """``read(*args)``, read once per key of profiles and rotations."""
+        if key not in self._readings:
+            self._readings[key] = read(*args)
+        return self._readings[key]
+
+    def _rectangle(self, profile) -> _Rectangle:
+        key = profile.id()
         if key not in self._rectangles:
-            self._rectangles[key] = _read_rectangle(profile)
+            self._rectangles[key] = _read_rectangle(profile.get_info(recursive=True))
         return self._rectangles[key]
 
     def _profile_set_plies(self, profile_set) -> list:
@@ -233,14 +360,14 @@ class SectionReader:
         key = profile_set.id()
         if key not in self._profile_sets:
             profiles = [item.Profile for item in profile_set.MaterialProfiles or () if item.Profile is not None]
-            self._profile_sets[key] = [self._rectangle(profile.get_info(recursive=True)) for profile in profiles]
+            self._profile_sets[key] = [self._rectangle(profile) for profile in profiles]
         return self._profile_sets[key]
 
     def _profile_set_section(self, plies: list, extrusion: Optional[Extrusion], object_matrix) -> SectionReading:
         problem = _plies_problem(plies)
         if problem:
             return SectionReading(None, problem)
-        body_profile = self._rectangle(extrusion.solid["SweptArea"]) if extrusion is not None else None
+        body_profile = self._rectangle(extrusion.profile) if extrusion is not None else None
         if body_profile is not None and not body_profile.problem and body_profile.same_size(plies[0]):
             width, depth = _oriented(body_profile, extrusion.matrix)  # the body shows how the profile is turned
         else:
@@ -248,8 +375,8 @@ class SectionReader:
         return self._built_up(plies, width, depth, "profile set")
 
     def _extrusion_section(self, extrusion: Extrusion) -> SectionReading:
-        area = extrusion.solid["SweptArea"]
-        profiles = area["Profiles"] if area["type"] == "IfcCompositeProfileDef" else [area]
+        area = extrusion.profile
+        profiles = area.Profiles if area.is_a() == "IfcCompositeProfileDef" else [area]
         plies = [self._rectangle(profile) for profile in profiles]
         problem = _plies_problem(plies)
         if problem:
@@ -282,6 +409,11 @@ def _read_rectangle(profile: dict) -> _Rectangle:
     return _Rectangle(float(x_dim), float(y_dim), axis_matrix(profile["Position"]), name, "")
 
 
+def rotation_key(matrix: np.ndarray) -> bytes:
+    """The rotation part of a placement matrix as a dict key: equal bytes, equal numbers."""
+    return matrix[:3, :3].tobytes()
+
+
 def _plies_problem(plies: list) -> str:
     """Why a list of profiles is not one rectangle or several equal ones; '' when it is."""
     for ply in plies:
@@ -295,8 +427,8 @@ def _plies_problem(plies: list) -> str:
 
 def _oriented(rectangle: _Rectangle, parent: np.ndarray) -> tuple:
     """(width, depth) of a rectangle placed by ``parent``: the axis more vertical in the world is the depth."""
-    frame = parent[:3, :3] @ rectangle.frame[:3, :3]
-    x_axis, y_axis = frame[:, 0], frame[:, 1]
+    rows = (parent[:3, :3] @ rectangle.frame[:3, :3]).tolist()
+    x_axis, y_axis = [row[0] for row in rows], [row[1] for row in rows]
     x_scale, y_scale = _length(x_axis), _length(y_axis)
     x_size, y_size = rectangle.x_dim * x_scale, rectangle.y_dim * y_scale
     if abs(x_axis[2]) / x_scale > abs(y_axis[2]) / y_scale + 1e-9:
