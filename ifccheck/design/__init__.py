@@ -20,6 +20,7 @@ VERDICT_COLUMNS = [
     "comb_bending", "comb_shear", "comb_deflection_live", "comb_deflection_total", "comb_bearing",
     "design_span", "allowable_span", "species", "grade", "nominal",
     "A", "S", "I", "required_A", "required_S", "required_I", "design_basis",
+    "governing_location", "support_count", "bending_edge", "unbraced_length_used", "uplift_force",
 ]
 
 

@@ -102,9 +102,14 @@ def write_verdicts(model: ifcopenshell.file, table, units: ModelUnits, checked_w
     factory = _PropertyFactory(model)
     history = _owner_history(model)
     groups: dict = {}
-    for element, props in _verdict_properties(model, table, units, checked_with, factory):
-        groups.setdefault(tuple(p.id() for p in props), (props, []))[1].append(element)
-    for props, elements in groups.values():
+    for guid, values in zip(table["global_id"], _verdict_values(table, units, checked_with)):
+        groups.setdefault(values, []).append(guid)
+    count = 0
+    for values, guids in groups.items():
+        elements = [e for e in (_by_guid(model, g) for g in guids) if e is not None]
+        if not elements:
+            continue
+        props = [factory.single(name, ifc_type, value) for name, ifc_type, value in values]
         pset = model.create_entity(
             "IfcPropertySet", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history, Name=VERDICT_PSET,
             HasProperties=props,
@@ -113,25 +118,22 @@ def write_verdicts(model: ifcopenshell.file, table, units: ModelUnits, checked_w
             "IfcRelDefinesByProperties", GlobalId=ifcopenshell.guid.new(), OwnerHistory=history,
             RelatedObjects=elements, RelatingPropertyDefinition=pset,
         )
-    return sum(len(elements) for _, elements in groups.values())
+        count += len(elements)
+    return count
 
 
-def _verdict_properties(model, table, units: ModelUnits, checked_with: str, factory):
-    """(element, properties) of every row, values converted to the model's units."""
+def _verdict_values(table, units: ModelUnits, checked_with: str) -> list:
+    """Per row, the verdict's (name, IFC type, value) triples in the model's units."""
     scale = {kind: 1.0 / units.to_core[kind] for kind in ("length", "area", "section_modulus", "moment_of_inertia")}
-    columns = {c: table[c].to_numpy() for c in table.columns}
-    for k, guid in enumerate(columns["global_id"]):
-        element = _by_guid(model, guid)
-        if element is None:
-            continue
-        props = [factory.single(name, ifc_type, str(columns[col][k]))
-                 for name, col, ifc_type in _LABELS if str(columns[col][k] or "")]
-        for name, col, ifc_type, kind in _MEASURED:
-            value = float(columns[col][k]) if columns[col][k] is not None else math.nan
-            if np.isfinite(value):
-                props.append(factory.single(name, ifc_type, _in_model_units(value, kind, scale)))
-        props.append(factory.single("CheckedWith", "IfcLabel", checked_with))
-        yield element, props
+    columns = []
+    for name, col, ifc_type in _LABELS:
+        columns.append([(name, ifc_type, str(v)) if str(v or "") else None for v in table[col].tolist()])
+    for name, col, ifc_type, kind in _MEASURED:
+        values = table[col].to_numpy(float)
+        columns.append([(name, ifc_type, _in_model_units(v, kind, scale)) if np.isfinite(v) else None
+                        for v in values.tolist()])
+    columns.append([("CheckedWith", "IfcLabel", checked_with)] * len(table))
+    return [tuple(p for p in row if p is not None) for row in zip(*columns)]
 
 
 def _in_model_units(value: float, kind, scale: dict):

@@ -322,9 +322,10 @@ class NdsBasis:
         if closed.any():
             sub = cap.subset(closed)
             loads = t[LOAD_COLUMNS].to_numpy(float)[closed]
-            r = evaluate(t["design_span"].to_numpy(float)[closed], loads, combos, cd, sub)
+            L = t["design_span"].to_numpy(float)[closed]
+            r = evaluate(L, loads, combos, cd, sub)
             self._record(t, out, closed, r, names, sub, support_count=2)
-            out.loc[out.index[closed], "allowable_span"] = allowable_span(loads, combos, cd, sub)
+            out.loc[out.index[closed], "allowable_span"] = allowable_span(L, loads, combos, cd, sub, r)
         analysed = ok & has_analysis
         if analysed.any():
             sub = cap.subset(analysed)

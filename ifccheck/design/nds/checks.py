@@ -223,9 +223,45 @@ def max_utilization(L, loads, combos, cd_by_type, cap) -> np.ndarray:
     return evaluate(L, loads, combos, cd_by_type, cap)["util"].max(axis=(0, 2))
 
 
-def allowable_span(loads, combos, cd_by_type, cap, longest: float = 720.0, tol: float = 0.01) -> np.ndarray:
-    """Longest design span (in) at which each member still passes every check: a vectorised bisection
-    on the same checks (utilization rises with span). Capped at ``longest``; 0 if even 1 in fails."""
+def allowable_span(L: np.ndarray, loads, combos, cd_by_type, cap, checked: dict, longest: float = 720.0) -> np.ndarray:
+    """Longest design span (in) at which each member still passes every check, capped at ``longest``.
+
+    ``checked`` is :func:`evaluate` at the spans L. Where no capacity depends on the span (CL = 1 or
+    a fixed unbraced length, no volume factor, no net uplift) each check scales with a power of the
+    span and the answer is exact (:func:`_scaled_spans`); elsewhere a vectorised bisection runs on
+    the same checks.
+    """
+    span = np.minimum(_scaled_spans(L, checked["util"], cap), longest)
+    dem = checked["demands"]
+    fixed_lu = cap.braced | (cap.d <= cap.b) | np.isfinite(cap.unbraced_length)
+    scalable = fixed_lu & ~cap.glulam & ~(dem.M_neg > 0).any(axis=1)
+    if not scalable.all():
+        rest = ~scalable
+        span[rest] = _bisected_spans(loads[rest], combos, cd_by_type, cap.subset(rest), longest)
+    return span
+
+
+def _scaled_spans(L: np.ndarray, util: np.ndarray, cap: SectionCapacity) -> np.ndarray:
+    """Span at which the first check reaches 1.0 when utilizations scale as: bending L², shear
+    (L/2 − offset) for V at a section ``offset`` from the support, deflection L³ (Δ ∝ L⁴ against
+    L/n), bearing L (common practice, simple span under uniform load)."""
+    L0 = L[:, None]
+    offset = shear_offset(cap)[:, None]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        spans = np.stack([
+            L0 * util[0] ** -0.5,
+            2.0 * (offset + (L0 / 2.0 - offset) / util[1]),
+            L0 * util[2] ** (-1.0 / 3.0),
+            L0 * util[3] ** (-1.0 / 3.0),
+            L0 / util[4],
+        ])
+    spans = np.where(np.isnan(spans), np.inf, spans)
+    return spans.min(axis=(0, 2))
+
+
+def _bisected_spans(loads, combos, cd_by_type, cap, longest: float, tol: float = 0.01) -> np.ndarray:
+    """Longest span passing every check by bisection between 1 in and ``longest`` (utilization rises
+    with span); ``longest`` if that passes, 0 if even 1 in fails."""
     n = loads.shape[0]
     lo = np.full(n, 1.0)
     hi = np.full(n, float(longest))
