@@ -14,7 +14,15 @@ import pint
 
 from .errors import UnitError
 
-ureg = pint.UnitRegistry()
+def _registry() -> pint.UnitRegistry:
+    """The registry, with its parsed definitions cached between runs where a cache folder can be used."""
+    try:
+        return pint.UnitRegistry(cache_folder=":auto:")
+    except OSError:
+        return pint.UnitRegistry()
+
+
+ureg = _registry()
 ureg.define("plf = lbf / foot")
 ureg.define("psf = lbf / foot ** 2")
 ureg.define("klf = kip / foot")

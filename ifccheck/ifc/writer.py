@@ -129,20 +129,20 @@ def _verdict_values(table, units: ModelUnits, checked_with: str) -> list:
     for name, col, ifc_type in _LABELS:
         columns.append([(name, ifc_type, str(v)) if str(v or "") else None for v in table[col].tolist()])
     for name, col, ifc_type, kind in _MEASURED:
-        values = table[col].to_numpy(float)
-        columns.append([(name, ifc_type, _in_model_units(v, kind, scale)) if np.isfinite(v) else None
-                        for v in values.tolist()])
+        values = _in_model_units(table[col].to_numpy(float), kind, scale)
+        columns.append([(name, ifc_type, v) if v == v else None for v in values.tolist()])  # v != v: NaN
     columns.append([("CheckedWith", "IfcLabel", checked_with)] * len(table))
     return [tuple(p for p in row if p is not None) for row in zip(*columns)]
 
 
-def _in_model_units(value: float, kind, scale: dict):
-    """A core-unit value as written: ratios to 6 decimals, counts as integers, lengths etc. scaled."""
+def _in_model_units(values: np.ndarray, kind, scale: dict) -> np.ndarray:
+    """Core-unit values as written: ratios to 6 decimals, counts as integers (object array, NaN kept),
+    lengths, areas and section properties scaled to the model's units."""
     if kind is None:
-        return round(value, 6)
+        return np.round(values, 6)
     if kind == "count":
-        return int(value)
-    return round(value * scale[kind], 9)
+        return np.array([int(v) if v == v else v for v in values.tolist()], dtype=object)
+    return np.round(values * scale[kind], 9)
 
 
 def _by_guid(model: ifcopenshell.file, guid: str):

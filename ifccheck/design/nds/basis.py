@@ -51,14 +51,18 @@ def deflection_limits(member_use: str) -> "tuple[float, float]":
 _VALUE_COLUMNS = ("Fb", "Fb_neg", "Fv", "Fc_perp", "E", "Emin", "G")
 
 
+_NAN = object()  # stands for NaN in the keys of per_distinct
+
+
 def per_distinct(t: pd.DataFrame, columns: list, fn) -> list:
     """``fn(*values)`` for every row, computed once per distinct combination of ``columns``."""
     cache: dict = {}
     out = []
     for key in zip(*(t[c].tolist() for c in columns)):
-        if key not in cache:
-            cache[key] = fn(*key)
-        out.append(cache[key])
+        hashable = tuple(_NAN if v != v else v for v in key)  # every NaN is one key (NaN != NaN)
+        if hashable not in cache:
+            cache[hashable] = fn(*key)
+        out.append(cache[hashable])
     return out
 
 
