@@ -49,6 +49,9 @@ def test_awc_example_e1_2a_in_full():
                          [SupportRecord(0.0), SupportRecord(240.0)], [LoadRecord("L", "point", 2000.0, 120.0)])
     row = run_basis([rec]).iloc[0]
     assert row.effective_length == pytest.approx(1.37 * 240 + 3 * 15.25, abs=1e-9)  # 374.55, published 375
+    assert row.unbraced_length_used == pytest.approx(240.0)
+    assert row.R_B == pytest.approx(21.6, abs=0.05)
+    assert row.F_bE == pytest.approx(1776, abs=1.0)
     assert row.C_L == pytest.approx(0.876, abs=0.0005)
     assert row.F_b_prime == pytest.approx(1313, abs=1.0)
     assert row.governing_combination == "D+L" and row.bending_edge == "top"

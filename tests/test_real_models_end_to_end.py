@@ -108,3 +108,16 @@ def test_timber_members_of_analysis_models_are_linked_and_named(real_models_dir)
         assert len(result.table) == linked
         assert (result.table["status"] == "NOT_CHECKED").all()
         assert result.table["reason"].str.contains("'C24' is an EN 338 strength class").all()
+
+
+def test_console_summary_says_what_the_analysis_data_gave(real_models_dir, tmp_path, capsys):
+    # SOURCES.md: little_steel_frame has one analysis model with 176 curve members and 102
+    # temperature actions among its linear actions; its 17 C24 beams are linked by relation
+    from ifccheck.cli import main
+
+    path = real_models_dir / "little_steel_frame-3D--Axis-Struc.ifc"
+    code = main(["check", str(path), "-o", str(tmp_path / "o.ifc"), "--csv", str(tmp_path / "o.csv")])
+    out = capsys.readouterr().out
+    assert code == 0  # nothing fails: the timber is NOT_CHECKED (EN 338 class), the steel skipped
+    assert "1 analysis model(s), 176 curve members; linked 17 members by relation" in out
+    assert "102 temperature actions ignored" in out

@@ -197,7 +197,8 @@ class NdsBasis:
         for column in _UTIL_COLUMNS + ["max_util", "required_A", "required_S", "required_I", "allowable_span",
                                        "C_D", "C_L", "C_F", "C_r", "C_M_b", "F_b_prime", "f_b", "F_v_prime", "f_v"]:
             out[column] = np.nan
-        for column in ("governing_location", "uplift_force", "support_count", "effective_length", "unbraced_length_used"):
+        for column in ("governing_location", "uplift_force", "support_count", "effective_length", "unbraced_length_used",
+                       "R_B", "F_bE"):
             out[column] = np.nan
         for column in _COMB_COLUMNS + ["governing_check", "governing_combination", "bending_edge"]:
             out[column] = ""
@@ -372,7 +373,7 @@ class NdsBasis:
         b = gov_comb[0]
         for column, key in (("C_D", "CD"), ("C_L", "C_L"), ("F_b_prime", "F_b_prime"), ("f_b", "f_b"),
                             ("bending_edge", "bending_edge"), ("effective_length", "le_bending"),
-                            ("unbraced_length_used", "lu_bending"),
+                            ("unbraced_length_used", "lu_bending"), ("R_B", "R_B"), ("F_bE", "F_bE"),
                             ("slender", "too_slender")):
             out.loc[at, column] = r[key][rows, b]
         out.loc[at, "F_v_prime"] = r["F_v_prime"][rows, gov_comb[1]]

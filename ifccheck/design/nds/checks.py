@@ -124,11 +124,12 @@ class Demands:
 
 def beam_stability(le: np.ndarray, F_b_star: np.ndarray, cap: SectionCapacity):
     """NDS 3.3.3: CL per member and combination from the effective length le (n, m; NaN = edge held),
-    and whether RB exceeds 50 (not permitted, NDS 3.3.3.7)."""
+    whether RB exceeds 50 (not permitted, NDS 3.3.3.7), and RB and FbE (NaN where the edge is held)."""
     held = np.isnan(le) | (cap.d <= cap.b)[:, None]  # NDS 3.3.3.1-3.3.3.3
     RB = factors.R_B(np.where(held, 1.0, le), cap.d[:, None], cap.b[:, None])
-    C_L = factors.C_L(factors.F_bE(cap.E_min_prime[:, None], RB), F_b_star)
-    return np.where(held, 1.0, C_L), ~held & (RB > 50.0)
+    F_bE = factors.F_bE(cap.E_min_prime[:, None], RB)
+    C_L = factors.C_L(F_bE, F_b_star)
+    return np.where(held, 1.0, C_L), ~held & (RB > 50.0), np.where(held, np.nan, RB), np.where(held, np.nan, F_bE)
 
 
 def utilizations(dem: Demands, CD: np.ndarray, cap: SectionCapacity) -> dict:
@@ -140,13 +141,13 @@ def utilizations(dem: Demands, CD: np.ndarray, cap: SectionCapacity) -> dict:
     def bending(M, le, F_b_star_noCD):
         # NDS 3.3: fb = M/S ≤ F'b = Fb·CD·CM·Ct·CL·CF·Cfu·Ci·Cr; glulam: min(CL, CV) (NDS 5.3.6)
         F_b_star = F_b_star_noCD[:, None] * CD
-        C_L, slender = beam_stability(le, F_b_star, cap)
+        C_L, slender, RB, F_bE = beam_stability(le, F_b_star, cap)
         C_L_or_V = np.where(cap.glulam[:, None], np.minimum(C_L, C_V), C_L)
         F_b_prime = F_b_star * cap.C_fu[:, None] * C_L_or_V
-        return M / S, F_b_prime, C_L, slender
+        return M / S, F_b_prime, C_L, slender, RB, F_bE
 
-    f_pos, F_pos, CL_pos, slender_pos = bending(dem.M_pos, dem.le_pos, cap.F_b_star_noCD)
-    f_neg, F_neg, CL_neg, slender_neg = bending(dem.M_neg, dem.le_neg, cap.F_b_star_neg_noCD)
+    f_pos, F_pos, CL_pos, slender_pos, RB_pos, FbE_pos = bending(dem.M_pos, dem.le_pos, cap.F_b_star_noCD)
+    f_neg, F_neg, CL_neg, slender_neg, RB_neg, FbE_neg = bending(dem.M_neg, dem.le_neg, cap.F_b_star_neg_noCD)
     u_pos = np.where(slender_pos & (dem.M_pos > 0), np.inf, f_pos / F_pos)
     u_neg = np.where(slender_neg & (dem.M_neg > 0), np.inf, f_neg / F_neg)
     negative = u_neg > u_pos
@@ -159,6 +160,8 @@ def utilizations(dem: Demands, CD: np.ndarray, cap: SectionCapacity) -> dict:
         "util": util,
         "CD": CD,
         "C_L": pick(CL_pos, CL_neg),
+        "R_B": pick(RB_pos, RB_neg),
+        "F_bE": pick(FbE_pos, FbE_neg),
         "too_slender": pick(slender_pos, slender_neg),
         "bending_edge": np.where(negative, "bottom", "top"),
         "x_bending": pick(dem.x_pos, dem.x_neg),
