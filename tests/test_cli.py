@@ -29,6 +29,9 @@ def test_check_writes_both_outputs_and_exits_1_on_fail(sample, capsys):
     out = capsys.readouterr().out
     assert "PASS 18" in out and "FAIL 2" in out and "NOT_CHECKED 2" in out and "skipped" in out
     assert "licensed engineer" in out
+    # data readiness (sample_models/README.md): J-U-12 lacks a known grade, TJ-U-01 its loads
+    assert "data readiness: 2 members not checked" in out
+    assert "     1  an NDS species and grade" in out and "     1  loads" in out
     assert sorted(p.name for p in sample.parent.iterdir()) == ["studio.checked.ifc", "studio.exceptions.csv", "studio.ifc"]
 
 

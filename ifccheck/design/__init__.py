@@ -21,6 +21,7 @@ VERDICT_COLUMNS = [
     "design_span", "allowable_span", "species", "grade", "nominal",
     "A", "S", "I", "required_A", "required_S", "required_I", "design_basis",
     "governing_location", "support_count", "bending_edge", "unbraced_length_used", "uplift_force",
+    "problems",
 ]
 
 
@@ -31,7 +32,8 @@ class DesignBasis(Protocol):
     label: str
 
     def check(self, inputs: pd.DataFrame, rules: dict) -> pd.DataFrame:
-        """Verdict columns (at least VERDICT_COLUMNS) for every row of ``inputs``, same index."""
+        """Verdict columns (at least VERDICT_COLUMNS) for every row of ``inputs``, same index;
+        ``problems`` holds every reason a member was not checked (the inputs' and the basis's own)."""
 
 
 _BASES: dict = {}

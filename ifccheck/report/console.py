@@ -37,7 +37,10 @@ def summary(result, outputs: "list[str]" = ()) -> str:
             )
     not_checked = result.table[result.table["status"] == "NOT_CHECKED"]
     if len(not_checked):
-        lines.append(f"  not checked ({len(not_checked)}), first reasons:")
+        lines.append(f"  data readiness: {len(not_checked)} members not checked, by what they lack:")
+        for what, count in readiness(not_checked["problems"]):
+            lines.append(f"    {count:>6}  {what}")
+        lines.append("  first reasons:")
         for row in not_checked.head(5).itertuples():
             lines.append(f"    {str(row.name)[:18]:<18} {row.global_id:<22} {str(row.reason)[:100]}")
     for path in outputs:
@@ -62,3 +65,31 @@ def _structural_lines(found) -> list:
         lines.append("  load groups with no load type (map them in the rules): " + ", ".join(found.unmapped_groups[:10]))
     lines += [f"  analysis data not used: {p}" for p in found.problems]
     return lines
+
+
+#: what a NOT_CHECKED reason says is missing, by words in it (first match wins)
+_LACKS = (
+    ("material not identified", "material not identified"),
+    ("grade", "an NDS species and grade"),
+    ("species", "an NDS species and grade"),
+    ("section", "a rectangular section"),
+    ("span", "a span"),
+    ("support", "supports"),
+    ("no loads", "loads"),
+    ("load group", "load types for the analysis load groups"),
+    ("TributaryWidth", "a tributary width"),
+)
+
+
+def readiness(problems) -> list:
+    """(what is lacking, member count) for the members not checked, most frequent first: the list a
+    coordinator sends back to the modeller. A member lacking several things counts under each."""
+    counts: dict = {}
+    for member_problems in problems:
+        lacks = set()
+        for problem in member_problems:
+            what = next((label for word, label in _LACKS if word in problem), "other: " + problem.split(";")[0][:60])
+            lacks.add(what)
+        for what in lacks:
+            counts[what] = counts.get(what, 0) + 1
+    return sorted(counts.items(), key=lambda item: (-item[1], item[0]))

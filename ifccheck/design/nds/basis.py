@@ -206,6 +206,7 @@ class NdsBasis:
         if ok.any():
             self._run_checks(t, out, cap, ok)
         self._verdicts(out, ok, problems, used, notices)
+        out["problems"] = problems
         return out
 
     # -- resolving what the model says into NDS terms -------------------------------------------
