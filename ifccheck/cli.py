@@ -1,4 +1,5 @@
-"""Command line: ``ifccheck check MODEL.ifc [-o OUT.ifc] [--csv OUT.csv] [--rules PROJECT.toml] [--in-place]``.
+"""Command line: ``ifccheck check MODEL.ifc [-o OUT.ifc] [--csv OUT.csv] [--rules PROJECT.toml] [--in-place]``
+and ``ifccheck rules --example [-o PROJECT.toml]`` (a commented starter project rules file).
 
 Exit codes: 0 ran and nothing fails; 1 ran and at least one member fails; 2 could not run.
 """
@@ -29,6 +30,10 @@ def _parser() -> argparse.ArgumentParser:
     check.add_argument("--csv", type=Path, help="exception list to write (default MODEL.exceptions.csv)")
     check.add_argument("--rules", type=Path, help="project rules file (TOML) over the rules/ defaults")
     check.add_argument("--in-place", action="store_true", help="write the verdicts into MODEL itself")
+    rules = commands.add_parser("rules", help="project rules files: print or write a commented starter file")
+    rules.add_argument("--example", action="store_true", required=True,
+                       help="the starter file, with every key and what it does")
+    rules.add_argument("-o", "--output", type=Path, help="write it to this new file instead of printing it")
     return parser
 
 
@@ -60,10 +65,28 @@ def run_check(args) -> int:
     return 1 if result.failed else 0
 
 
+def run_rules(args) -> int:
+    from .rules import example_text
+
+    text = example_text()
+    if args.output is None:
+        sys.stdout.write(text)
+        return 0
+    try:
+        with open(args.output, "x", encoding="utf-8") as fh:  # "x": never overwrite a file
+            fh.write(text)
+    except FileExistsError as exc:
+        raise IfcCheckError(f"{args.output} already exists; choose another name or remove it first") from exc
+    except OSError as exc:
+        raise IfcCheckError(f"cannot write {args.output}: {exc}") from exc
+    print(f"wrote {args.output}; check a model with: ifccheck check MODEL.ifc --rules {args.output}")
+    return 0
+
+
 def main(argv=None) -> int:
     args = _parser().parse_args(argv)
     try:
-        return run_check(args)
+        return run_rules(args) if args.command == "rules" else run_check(args)
     except IfcCheckError as exc:
         print(f"ifccheck: cannot run: {exc}", file=sys.stderr)
         return 2

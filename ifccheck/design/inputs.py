@@ -13,6 +13,7 @@ import numpy as np
 import pandas as pd
 
 from ..model import AREA_LOAD_PROPS, LINE_LOAD_PROPS, LOAD_TYPES, MemberRecord
+from ..rules import member_use as rules_member_use
 from ..units import parse_quantity, parse_temperature_f
 
 LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
@@ -109,7 +110,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
             problems.append("no loads found (no ifccheck_DesignInput loads)")
         ptype = r.predefined_type or "NOTDEFINED"
         braced = _bracing(r, ptype in braced_types, ptype, used)
-        member_use = rules["member_use"].get(ptype, "floor")
+        member_use = rules_member_use(rules, ptype, r.storey)
         sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"],
                             "self-weight " + ("included in dead load" if d["self_weight_included"] else "added")
                             + " (rules default)", used)
