@@ -151,6 +151,10 @@ class MemberRecord:
     problems: list = field(default_factory=list)
     #: supports and loads from the model's structural-analysis data, when it has any for this member
     analysis: Optional[AnalysisInput] = None
+    #: world coordinates (x, y, z) of the ends of the member's axis, inches: from its 'Axis'
+    #: representation, else its body extrusion through the profile centre (None when unknown)
+    axis_start: Optional[tuple] = None
+    axis_end: Optional[tuple] = None
 
 
 @dataclass(frozen=True)

@@ -15,6 +15,7 @@ import pandas as pd
 from ..model import AREA_LOAD_PROPS, LINE_LOAD_PROPS, LOAD_TYPES, MemberRecord
 from ..rules import member_use as rules_member_use
 from ..units import parse_quantity, parse_temperature_f
+from .framing import tributary_widths
 
 LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
 
@@ -26,10 +27,15 @@ def _section_text(section) -> str:
     return f"{ply}{section.ply_width:.3g}x{section.depth:.3g} in"
 
 
-def superimposed_loads(record: MemberRecord) -> "tuple[dict, list, list]":
+#: load types of the project rules' area loads
+_AREA_LOAD_TYPES = {"dead": "D", "live": "L", "roof_live": "Lr", "snow": "S"}
+
+
+def superimposed_loads(record: MemberRecord, tributary: "tuple[float, str]") -> "tuple[dict, list, list]":
     """Line loads by type (lbf/in, per horizontal length) from the input property set.
 
-    Line loads and area loads × TributaryWidth add. Returns (loads, sources, problems).
+    Line loads and area loads × tributary width add; ``tributary`` is (width in inches, where it
+    came from), the input's TributaryWidth or the framing run's. Returns (loads, sources, problems).
     """
     loads = {t: 0.0 for t in LOAD_TYPES}
     sources, problems = [], []
@@ -39,14 +45,56 @@ def superimposed_loads(record: MemberRecord) -> "tuple[dict, list, list]":
             sources.append(f"{prop} ({record.input_sources.get(prop, 'occurrence')})")
     area = {p: t for p, t in AREA_LOAD_PROPS.items() if p in record.inputs}
     if area:
-        width = record.inputs.get("TributaryWidth")
-        if width is None:
-            problems.append("area loads given but no TributaryWidth")
+        width, where = tributary
+        if not np.isfinite(width):
+            problems.append("area loads given but no tributary width (no TributaryWidth, no parallel neighbours)")
         else:
             for prop, load_type in area.items():
                 loads[load_type] += record.inputs[prop] * width
-                sources.append(f"{prop} x TributaryWidth")
+                sources.append(f"{prop} x {where}")
     return loads, sources, problems
+
+
+def project_area_loads(record: MemberRecord, entries: list, tributary: "tuple[float, str]"):
+    """Line loads from the project rules' area loads for the member's storey times its tributary
+    width: (loads, sources, problems). Entries naming a slab or a space usage are not matched yet."""
+    matching = [e for e in entries if e.get("storey") is not None and e["storey"] == record.storey]
+    loads = {t: 0.0 for t in LOAD_TYPES}
+    if not matching:
+        return loads, [], []
+    width, where = tributary
+    labels = ", ".join(e["label"] for e in matching)
+    if not np.isfinite(width):
+        return loads, [], [f"area loads of {labels} apply but the member has no tributary width "
+                           "(no parallel neighbours found; give TributaryWidth)"]
+    for entry in matching:
+        for key, load_type in _AREA_LOAD_TYPES.items():
+            loads[load_type] += entry.get(key, 0.0) * width
+    return loads, [f"{labels} x {where}"], []
+
+
+def framing_runs(records: "list[MemberRecord]") -> pd.DataFrame:
+    """Framing runs and tributary widths (see :mod:`.framing`) of the members whose axis and section
+    are known; rows indexed by record position."""
+    known = [k for k, r in enumerate(records) if r.axis_start is not None and r.axis_end is not None and r.section]
+    if not known:
+        return pd.DataFrame(columns=["tributary_width", "run_size", "repetitive", "note"])
+    runs = tributary_widths(
+        np.array([records[k].axis_start for k in known]), np.array([records[k].axis_end for k in known]),
+        np.array([records[k].section.width for k in known]), [records[k].storey for k in known],
+        names=[records[k].name or records[k].global_id for k in known],
+    )
+    runs.index = known
+    return runs
+
+
+def _tributary(record: MemberRecord, runs: pd.DataFrame, k: int) -> "tuple[float, str]":
+    """The input's TributaryWidth wins over the framing run's half spacings."""
+    if "TributaryWidth" in record.inputs:
+        return record.inputs["TributaryWidth"], "TributaryWidth"
+    if k in runs.index and np.isfinite(runs.at[k, "tributary_width"]):
+        return float(runs.at[k, "tributary_width"]), f"tributary width {runs.at[k, 'tributary_width']:.1f} in (framing run)"
+    return np.nan, ""
 
 
 def _flag(record, name, default, label, defaults_used):
@@ -68,6 +116,19 @@ def _bracing(record, braced_type: bool, ptype: str, defaults_used: list) -> bool
     return braced_type
 
 
+def _repetitive(record, type_default: bool, ptype: str, runs: pd.DataFrame, k: int, defaults_used: list) -> bool:
+    """NDS 4.3.9 Cr: the input says; else a framing run of three or more at 24 in or less; else the
+    member type's default."""
+    if "RepetitiveMember" in record.inputs:
+        return bool(record.inputs["RepetitiveMember"])
+    if k in runs.index and runs.at[k, "run_size"] >= 3:
+        found = bool(runs.at[k, "repetitive"])
+        defaults_used.append(f"repetitive member {'yes' if found else 'no'} (framing run of {runs.at[k, 'run_size']})")
+        return found
+    defaults_used.append(f"repetitive member {'yes' if type_default else 'no'} ({ptype} default)")
+    return type_default
+
+
 def _held(supports) -> bool:
     """A straight member is held by two supports, or by one fixed support (a cantilever)."""
     return len(supports) >= 2 or any(s.kind == "fixed" for s in supports)
@@ -83,12 +144,17 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
     carriers = {
         s.carrier for r in records if r.analysis is not None for s in r.analysis.supports if s.carrier
     }
+    runs = framing_runs(records)
+    area_entries = rules.get("area_loads", [])
     rows = []
-    for r in records:
+    for k, r in enumerate(records):
         used: list = []
         notices: list = []
         problems = list(r.problems)
-        loads, load_sources, load_problems = superimposed_loads(r)
+        tributary = _tributary(r, runs, k)
+        loads, load_sources, load_problems = superimposed_loads(r, tributary)
+        if not load_sources:  # the input property set's loads win over the project's area loads
+            loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary)
         analysis = r.analysis if (r.analysis is not None and r.analysis.supports) else None
         if r.analysis is not None:
             problems += r.analysis.problems
@@ -148,16 +214,16 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                 "incised": bool(d["incised"]),
                 "braced": bool(braced),
                 "unbraced_length": r.inputs.get("UnbracedLength", np.nan),
-                "repetitive": bool(_flag(r, "RepetitiveMember", ptype in repetitive_types,
-                                         f"repetitive member {'yes' if ptype in repetitive_types else 'no'} "
-                                         f"({ptype} default)", used)),
+                "repetitive": _repetitive(r, ptype in repetitive_types, ptype, runs, k, used),
+                "tributary_width": tributary[0],
                 "member_use": member_use,
                 "n_live_input": r.inputs.get("LiveDeflectionLimit", np.nan),
                 "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
                 "defaults_used": used,
                 "notices": notices,
                 "problems": problems,
-                "notes": list(r.notes) + (r.analysis.notes if r.analysis is not None else []),
+                "notes": list(r.notes) + (r.analysis.notes if r.analysis is not None else [])
+                + ([runs.at[k, "note"]] if k in runs.index and runs.at[k, "note"] else []),
                 "analysis": analysis,
             }
         )
@@ -169,5 +235,5 @@ _COLUMNS = [
     "plies", "material_name", "material_category", "material_species", "material_grade", "input_species",
     "input_grade", "span_read", "span_is_clear", "span_source", "slope", *LOAD_COLUMNS, "load_sources",
     "self_weight_included", "bearing_length", "wet", "temperature_F", "incised", "braced", "unbraced_length",
-    "repetitive", "member_use", "n_live_input", "n_total_input", "defaults_used", "notices", "problems", "notes", "analysis",
+    "repetitive", "tributary_width", "member_use", "n_live_input", "n_total_input", "defaults_used", "notices", "problems", "notes", "analysis",
 ]

@@ -83,6 +83,9 @@ _NAME = fixed_position("IfcRoot", "Name", 2)
 _OBJECT_TYPE = fixed_position("IfcObject", "ObjectType", 4)
 _OBJECT_PLACEMENT = fixed_position("IfcProduct", "ObjectPlacement", 5)
 _REPRESENTATION = fixed_position("IfcProduct", "Representation", 6)
+_EXTRUDED_DIRECTION = fixed_position("IfcExtrudedAreaSolid", "ExtrudedDirection", 2)
+_EXTRUDED_DEPTH = fixed_position("IfcExtrudedAreaSolid", "Depth", 3)
+_DIRECTION_RATIOS = fixed_position("IfcDirection", "DirectionRatios", 0)
 
 
 def read_model(model: ifcopenshell.file, rules: dict) -> ReadResult:
@@ -150,11 +153,26 @@ class _Inputs:
 
 @dataclass(frozen=True)
 class _Axis:
-    """A member's axis in world coordinates: its length (model units) and its end-to-end vector."""
+    """A member's axis in world coordinates: its length (model units) and its end-to-end vector.
+
+    Its ends are kept relative to the origin of the member's object placement (world directions,
+    model units), so members of one rotation and axis share one _Axis; see :meth:`ends`.
+    """
 
     length: float
     vector: np.ndarray
     source: str  # "axis" or "extrusion"
+    start_offset: tuple
+    end_offset: tuple
+
+    def ends(self, object_matrix: np.ndarray, to_inch: float) -> tuple:
+        """World (start, end) points of the axis in inches, of a member placed by ``object_matrix``."""
+        ox, oy, oz = object_matrix[:3, 3].tolist()
+        (sx, sy, sz), (ex, ey, ez) = self.start_offset, self.end_offset
+        return (
+            ((ox + sx) * to_inch, (oy + sy) * to_inch, (oz + sz) * to_inch),
+            ((ox + ex) * to_inch, (oy + ey) * to_inch, (oz + ez) * to_inch),
+        )
 
     @property
     def slope(self) -> float:
@@ -294,6 +312,8 @@ class _ModelReader:
         self._profile_sets: dict = {}
         self._section_notes: dict = {}
         self._axes: dict = {}
+        self._extrusion_axes: dict = {}
+        self._profile_centres: dict = {}
 
     def read(self, element):
         try:
@@ -336,6 +356,8 @@ class _ModelReader:
         if record.slope > self.max_slope:
             reason = f"axis {record.slope:.1f}° from horizontal, steeper than {self.max_slope:g}°"
             return _skip(element, reason, "not_bending")
+        if axis is not None:
+            record.axis_start, record.axis_end = axis.ends(object_matrix, self.to_inch)
         if body is not None:
             _guarded(record, "section", self._read_section, record, definition, body, object_matrix, own_psets)
         _guarded(record, "span", self._read_span, record, common, own_psets, type_info, axis)
@@ -396,9 +418,41 @@ class _ModelReader:
         if axis is not None:
             return axis
         if body.extrusion is not None:
-            vector = body.extrusion.vector()
-            return _Axis(float(np.linalg.norm(vector)), vector, "extrusion")
+            return self._extrusion_axis(body.extrusion, object_matrix)
         return None
+
+    def _extrusion_axis(self, extrusion, object_matrix: np.ndarray) -> _Axis:
+        """:func:`_new_extrusion_axis`, once per profile, extrusion and its place relative to the
+        member's placement (members of one size and direction share it)."""
+        solid = extrusion.solid
+        key = (
+            extrusion.profile.id(),
+            solid.get_argument(_EXTRUDED_DIRECTION).get_argument(_DIRECTION_RATIOS),
+            solid.get_argument(_EXTRUDED_DEPTH),
+            rotation_key(extrusion.matrix),
+            (extrusion.matrix[:3, 3] - object_matrix[:3, 3]).tobytes(),
+        )
+        if key not in self._extrusion_axes:
+            self._extrusion_axes[key] = self._new_extrusion_axis(extrusion, object_matrix)
+        return self._extrusion_axes[key]
+
+    def _new_extrusion_axis(self, extrusion, object_matrix: np.ndarray) -> _Axis:
+        """The axis of a body extrusion: from the profile centre at its base along the extrusion."""
+        vector = extrusion.vector()
+        cx, cy = self._profile_centre(extrusion.profile)
+        matrix = extrusion.matrix
+        start = matrix[:3, 3] - object_matrix[:3, 3]
+        if cx or cy:  # most profiles are centred on their position
+            start = start + matrix[:3, 0] * cx + matrix[:3, 1] * cy
+        end = start + vector
+        return _Axis(float(np.linalg.norm(vector)), vector, "extrusion", tuple(start.tolist()), tuple(end.tolist()))
+
+    def _profile_centre(self, profile) -> tuple:
+        """:func:`_profile_centre`, once per profile."""
+        key = profile.id()
+        if key not in self._profile_centres:
+            self._profile_centres[key] = _profile_centre(profile)
+        return self._profile_centres[key]
 
     def _axis_along(self, points: list, object_matrix: np.ndarray) -> Optional[_Axis]:
         """:func:`_axis_along`, once per axis points and rotation (parallel members of one length share it)."""
@@ -656,8 +710,25 @@ def _axis_along(points: list, object_matrix: np.ndarray) -> Optional[_Axis]:
     length = sum(math.dist(a, b) for a, b in zip(points, points[1:]))
     if not length > 0:
         return None
-    chord = tuple(end - start for start, end in zip(points[0], points[-1]))
-    return _Axis(length, object_matrix[:3, :3] @ chord, "axis")
+    rotation = object_matrix[:3, :3]
+    start, end = rotation @ points[0], rotation @ points[-1]
+    return _Axis(length, end - start, "axis", tuple(start.tolist()), tuple(end.tolist()))
+
+
+def _profile_centre(profile) -> tuple:
+    """Centre (x, y) of a profile in its own coordinates: the location of its Position; for a
+    composite profile the mean of its parts' centres; the origin for a profile without a Position."""
+    if profile.is_a("IfcCompositeProfileDef"):
+        centres = [_profile_centre(part) for part in profile.Profiles or ()]
+        if not centres:
+            return (0.0, 0.0)
+        return (sum(c[0] for c in centres) / len(centres), sum(c[1] for c in centres) / len(centres))
+    position = getattr(profile, "Position", None)  # parameterized profiles have one
+    location = position.Location if position is not None else None
+    if location is None or not location.is_a("IfcCartesianPoint"):
+        return (0.0, 0.0)
+    x, y = (*location.Coordinates, 0.0)[:2]
+    return (float(x), float(y))
 
 
 #: curves of an 'Axis' representation whose points the reader follows

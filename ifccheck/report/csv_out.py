@@ -42,6 +42,7 @@ def exceptions_frame(rows: pd.DataFrame, units, rules: dict) -> pd.DataFrame:
             "nominal": rows["nominal"],
             "species": rows["species"],
             "grade": rows["grade"],
+            f"tributary_width_{length}": rows["tributary_width"] * f_len,
             f"design_span_{length}": rows["design_span"] * f_len,
             f"allowable_span_{length}": rows["allowable_span"] * f_len,
             **{f"{_LOAD_NAMES[t]}_load_{load}": rows[f"w_{t}"] * f_load for t in LOAD_TYPES},
