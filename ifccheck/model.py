@@ -92,6 +92,8 @@ class SupportRecord:
     #: along it (in); the reaction here is a point load on the carrier ("" / NaN when none)
     carrier: str = ""
     carrier_x: float = float("nan")
+    #: the supporting element found in the geometry (GlobalId), whose reactions are listed
+    element: str = ""
 
 
 @dataclass(frozen=True)
@@ -168,6 +170,20 @@ class SkippedElement:
     category: str  # "non_timber", "not_load_bearing" or "not_bending"
 
 
+@dataclass(frozen=True)
+class ElementBox:
+    """An element that may support or brace members (wall, column, beam, member, slab, roof,
+    footing), as its world axis-aligned bounding box in inches."""
+
+    global_id: str
+    name: str
+    ifc_class: str
+    kind: str  # "wall", "column", "beam", "member", "slab", "roof", "footing"
+    storey: str
+    lo: tuple  # (x, y, z) minimum corner
+    hi: tuple  # (x, y, z) maximum corner
+
+
 @dataclass
 class ModelUnits:
     """The model's unit scales: factor from the model's unit of each kind to core units."""
@@ -187,3 +203,5 @@ class ReadResult:
     skipped: list  # list[SkippedElement]
     #: what the structural-analysis data gave (ifccheck.ifc.structural.StructuralSummary), if read
     structural: object = None
+    #: walls, columns, beams, slabs and roofs as boxes, for supports and bracing from the geometry
+    elements: list = field(default_factory=list)  # list[ElementBox]
