@@ -19,6 +19,7 @@ from .ifc import open_model, read_members
 from .ifc.writer import copy_model, write_model_atomically, write_verdicts
 from .model import ModelUnits
 from .report.csv_out import write_exceptions_csv
+from .report.reactions_out import write_reactions_csv
 from .rules import load_rules
 
 
@@ -34,6 +35,7 @@ class CheckResult:
     rules: dict
     owns_model: bool = False  # True when check_model opened the file itself
     structural: object = None  # what the structural-analysis data gave (counts for the summary)
+    elements: list = field(default_factory=list)  # supporting elements found in the geometry (ElementBox)
     _applied: bool = field(default=False, repr=False)
 
     @property
@@ -74,6 +76,15 @@ class CheckResult:
             write_verdicts(target, self.table, self.units, self.checked_with)
         return write_model_atomically(target, Path(path))
 
+    @property
+    def has_reactions(self) -> bool:
+        """Whether any member was found bearing on a wall, column or footing."""
+        return "element_reactions" in self.table and any(bool(r) for r in self.table["element_reactions"])
+
+    def write_reactions_csv(self, path) -> Path:
+        """Write the reactions on walls, columns and footings, summed per element, to ``path``."""
+        return write_reactions_csv(self.table, self.elements, Path(path), self.units, self.rules)
+
     def write_csv(self, path) -> Path:
         """Write the exception list (FAIL and NOT_CHECKED members) to ``path`` atomically."""
         return write_exceptions_csv(self.exceptions(), Path(path), self.units, self.rules)
@@ -99,7 +110,7 @@ def check_model(model_or_path, rules=None) -> CheckResult:
                        table["defaults_used"])
     ]
     return CheckResult(model, table, read.skipped, read.units, read.schema, merged, owns_model=owns,
-                       structural=read.structural)
+                       structural=read.structural, elements=read.elements)
 
 
 def _provenance(notes: list, identified_from: str, load_sources: str, defaults_used: list) -> str:

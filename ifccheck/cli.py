@@ -10,6 +10,7 @@ import argparse
 import gc
 import os
 import sys
+from contextlib import ExitStack
 from pathlib import Path
 
 from . import CAUTION, __version__
@@ -45,6 +46,11 @@ def _outputs(args) -> "tuple[Path, Path]":
     return ifc_out, csv_out
 
 
+def _reactions_path(model: Path) -> Path:
+    stem = model.name[: -len(model.suffix)] if model.suffix else model.name
+    return model.with_name(f"{stem}.reactions.csv")
+
+
 def run_check(args) -> int:
     from .checker import check_model
     from .report.console import summary
@@ -54,12 +60,16 @@ def run_check(args) -> int:
         raise IfcCheckError("use either --in-place or -o, not both")
     gc.disable()  # a short run holding many small records: skip the collector's repeated scans
     result = check_model(args.model, args.rules)
-    # both outputs are written to temporary files and renamed only when both succeeded
-    with atomic_target(ifc_out) as ifc_tmp, atomic_target(csv_out) as csv_tmp:
+    outputs = [ifc_out, csv_out]
+    # the outputs are written to temporary files and renamed only when all succeeded
+    with atomic_target(ifc_out) as ifc_tmp, atomic_target(csv_out) as csv_tmp, ExitStack() as more:
         result.write_ifc(ifc_tmp)
         result.write_csv(csv_tmp)
+        if result.has_reactions:
+            outputs.append(_reactions_path(args.model))
+            result.write_reactions_csv(more.enter_context(atomic_target(outputs[-1])))
     try:
-        print(summary(result, [str(ifc_out), str(csv_out)]), flush=True)
+        print(summary(result, [str(p) for p in outputs]), flush=True)
     except BrokenPipeError:  # the summary was piped into a reader that stopped early (e.g. head)
         os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
     return 1 if result.failed else 0

@@ -175,6 +175,7 @@ def _merge_table(section: str, target: dict, values: dict, text: _RulesText) -> 
 _CHOICES = {
     "shear_section": ("support_face", "support_centre", "d_from_face"),
     "report_units": ("auto", "imperial", "metric"),
+    "supports_from_geometry": ("auto", "always", "never"),
 }
 
 
@@ -192,6 +193,13 @@ def _check_defaults(d: dict, text: _RulesText) -> None:
             f"[defaults] bearing_length = {d['bearing_length']!r} must be positive (a length like '1.5 in')",
             "defaults", "bearing_length",
         )
+    try:
+        tolerance = parse_quantity(d["support_tolerance"], "length")
+    except UnitError as exc:
+        raise text.error(f"[defaults] support_tolerance: {exc}", "defaults", "support_tolerance") from exc
+    if not tolerance >= 0:
+        raise text.error(f"[defaults] support_tolerance = {d['support_tolerance']!r} must not be negative",
+                         "defaults", "support_tolerance")
     try:
         parse_temperature_f(d["service_temperature"])
     except UnitError as exc:

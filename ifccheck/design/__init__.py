@@ -21,7 +21,7 @@ VERDICT_COLUMNS = [
     "design_span", "allowable_span", "species", "grade", "nominal",
     "A", "S", "I", "required_A", "required_S", "required_I", "design_basis",
     "governing_location", "support_count", "bending_edge", "unbraced_length_used", "uplift_force",
-    "problems",
+    "problems", "element_reactions",
 ]
 
 

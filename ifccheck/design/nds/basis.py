@@ -203,6 +203,7 @@ class NdsBasis:
         for column in _COMB_COLUMNS + ["governing_check", "governing_combination", "bending_edge"]:
             out[column] = ""
         out["slender"] = False
+        out["element_reactions"] = [[] for _ in range(len(out))]  # reactions on walls and columns found
         if ok.any():
             self._run_checks(t, out, cap, ok)
         self._verdicts(out, ok, problems, used, notices)
@@ -338,6 +339,7 @@ class NdsBasis:
             r, support_count, longest_span = analysed_checks(t[analysed], combos, names, cd, sub)
             self._record(t, out, analysed, r, names, sub, support_count)
             out.loc[out.index[analysed], "design_span"] = longest_span
+            out.loc[out.index[analysed], "element_reactions"] = pd.Series(r["element_reactions"], index=out.index[analysed])
 
     def _record(self, t, out, mask, r, names, sub: SectionCapacity, support_count) -> None:
         """Write the governing utilizations, combinations, location and calculation trail of ``mask`` rows."""

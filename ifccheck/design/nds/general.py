@@ -195,6 +195,7 @@ def analysed_checks(rows: pd.DataFrame, combos: np.ndarray, names: tuple, cd_by_
     CD = load_duration_factors(np.array(types_present), combos, cd_by_type)
     r = utilizations(dem, CD, cap)
     r["demands"] = dem
+    r["element_reactions"] = [_element_reactions(row.analysis, res) for row, res in zip(row_list, results)]
     layouts = [res.layout for res in results]
     return r, np.array([len(l.supports) for l in layouts]), np.array([_longest_span(l) for l in layouts])
 
@@ -204,6 +205,15 @@ def _layout(row, cap: SectionCapacity, k: int) -> BeamLayout:
         Support(s.x, s.kind, s.width if np.isfinite(s.width) else row.bearing_length) for s in row.analysis.supports
     )
     return BeamLayout(row.analysis.length, supports, cap.E_prime[k] * cap.I[k])
+
+
+def _element_reactions(analysis, result) -> list:
+    """(supporting element's GlobalId, {load type: reaction lbf}) for the supports found on elements."""
+    return [
+        (support.element, {t: float(case.reactions[j]) for t, case in result.unit_cases.items()})
+        for j, support in enumerate(analysis.supports)
+        if support.element and not support.carrier
+    ]
 
 
 def _reaction_loads(result, support: int, x: float) -> tuple:
