@@ -100,7 +100,7 @@ def check_model(model_or_path, rules=None) -> CheckResult:
     owns = not hasattr(model_or_path, "by_type")
     model = open_model(model_or_path) if owns else model_or_path
     read = read_members(model, merged)
-    inputs = design_inputs(read.members, merged)
+    inputs = design_inputs(read.members, merged, read.elements)
     basis = get_basis(merged["defaults"]["design_basis"])
     verdicts = basis.check(inputs, merged) if len(inputs) else pd.DataFrame(columns=VERDICT_COLUMNS)
     table = inputs.drop(columns=[c for c in verdicts.columns if c in inputs.columns]).join(verdicts)

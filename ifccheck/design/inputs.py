@@ -12,10 +12,11 @@ import math
 import numpy as np
 import pandas as pd
 
-from ..model import AREA_LOAD_PROPS, LINE_LOAD_PROPS, LOAD_TYPES, MemberRecord
+from ..model import AREA_LOAD_PROPS, LINE_LOAD_PROPS, LOAD_TYPES, AnalysisInput, MemberRecord
 from ..rules import member_use as rules_member_use
 from ..units import parse_quantity, parse_temperature_f
 from .framing import tributary_widths
+from .supports import braced_by_slab, find_supports
 
 LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
 
@@ -104,16 +105,50 @@ def _flag(record, name, default, label, defaults_used):
     return default
 
 
-def _bracing(record, braced_type: bool, ptype: str, defaults_used: list) -> bool:
+def _bracing(record, braced_type: bool, ptype: str, defaults_used: list, slab: str = "") -> bool:
     """Whether the compression edge is held along the length: the input says, or an UnbracedLength
-    implies not, or the member type's default (sheathing on joists and rafters) applies."""
+    implies not, or a slab or roof found on the member's top holds it, or the member type's default
+    (sheathing on joists and rafters) applies."""
     if "ContinuouslyBraced" in record.inputs:
         return bool(record.inputs["ContinuouslyBraced"])
     if "UnbracedLength" in record.inputs:
         return False
+    if slab:
+        defaults_used.append(f"top edge braced by the slab or roof on it ({slab})")
+        return True
     state = "braced by sheathing" if braced_type else "unbraced over the span"
     defaults_used.append(f"compression edge {state} ({ptype} default)")
     return braced_type
+
+
+def geometry_supports(records: "list[MemberRecord]", elements: list, rules: dict) -> dict:
+    """Supports and top-edge bracing found in the geometry for members without analysis data:
+    record position -> (AnalysisInput, bracing slab GlobalId or ""). Empty when the rules say
+    never, or (auto) when the model has no wall, column or footing to bear on."""
+    d = rules["defaults"]
+    mode = d["supports_from_geometry"]
+    bearing_kinds = {"wall", "column", "footing"}
+    if mode == "never" or (mode == "auto" and not any(e.kind in bearing_kinds for e in elements)):
+        return {}
+    known = [k for k, r in enumerate(records)
+             if r.analysis is None and r.axis_start is not None and r.axis_end is not None and r.section]
+    if not known:
+        return {}
+    guids = [records[k].global_id for k in known]
+    starts = np.array([records[k].axis_start for k in known], dtype=float)
+    ends = np.array([records[k].axis_end for k in known], dtype=float)
+    depths = np.array([records[k].section.depth for k in known])
+    axes = {r.global_id: (r.axis_start, r.axis_end) for r in records if r.axis_start is not None}
+    tolerance = parse_quantity(d["support_tolerance"], "length")
+    found = find_supports(guids, starts, ends, depths, elements, tolerance=tolerance, member_axes=axes)
+    slabs = braced_by_slab(guids, starts, ends, depths, elements, tolerance=tolerance)
+    plan = np.hypot(*(ends - starts)[:, :2].T)
+    out = {}
+    for k, member_supports, slab, length in zip(known, found, slabs, plan):
+        notes = [f"support at {s.x:.1f} in: {s.source}" for s in member_supports.supports]
+        out[k] = (AnalysisInput(length=float(length), supports=list(member_supports.supports), loads=[],
+                                notes=notes, problems=list(member_supports.problems)), slab)
+    return out
 
 
 def _repetitive(record, type_default: bool, ptype: str, runs: pd.DataFrame, k: int, defaults_used: list) -> bool:
@@ -134,20 +169,24 @@ def _held(supports) -> bool:
     return len(supports) >= 2 or any(s.kind == "fixed" for s in supports)
 
 
-def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
-    """One row per candidate member with everything a design basis needs (core units)."""
+def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | None" = None) -> pd.DataFrame:
+    """One row per candidate member with everything a design basis needs (core units); ``elements``
+    are the model's walls, columns, beams and slabs (ElementBox) for supports found in the geometry."""
+    elements = elements or []
     d = rules["defaults"]
     bearing_default = parse_quantity(d["bearing_length"], "length")
     temperature_default = parse_temperature_f(d["service_temperature"])
     braced_types = set(d["continuously_braced_types"])
     repetitive_types = set(d["repetitive_types"])
-    carriers = {
-        s.carrier for r in records if r.analysis is not None for s in r.analysis.supports if s.carrier
-    }
     runs = framing_runs(records)
+    found_in_geometry = geometry_supports(records, elements, rules)
+    analyses = [r.analysis for r in records] + [a for a, _ in found_in_geometry.values()]
+    carriers = {s.carrier for a in analyses if a is not None for s in a.supports if s.carrier}
     area_entries = rules.get("area_loads", [])
     rows = []
     for k, r in enumerate(records):
+        found_analysis, slab = found_in_geometry.get(k, (None, ""))
+        member_analysis = r.analysis if r.analysis is not None else found_analysis
         used: list = []
         notices: list = []
         problems = list(r.problems)
@@ -155,10 +194,10 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
         loads, load_sources, load_problems = superimposed_loads(r, tributary)
         if not load_sources:  # the input property set's loads win over the project's area loads
             loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary)
-        analysis = r.analysis if (r.analysis is not None and r.analysis.supports) else None
-        if r.analysis is not None:
-            problems += r.analysis.problems
-            if not r.analysis.supports and r.analysis.loads:
+        analysis = member_analysis if (member_analysis is not None and member_analysis.supports) else None
+        if member_analysis is not None:
+            problems += member_analysis.problems
+            if not member_analysis.supports and member_analysis.loads:
                 problems.append("the structural-analysis data loads this member but gives it no supports "
                                 "(its end nodes hold nothing and join no other member)")
         if analysis is not None and not _held(analysis.supports):
@@ -175,7 +214,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
         if not load_sources:
             problems.append("no loads found (no ifccheck_DesignInput loads)")
         ptype = r.predefined_type or "NOTDEFINED"
-        braced = _bracing(r, ptype in braced_types, ptype, used)
+        braced = _bracing(r, ptype in braced_types, ptype, used, slab)
         member_use = rules_member_use(rules, ptype, r.storey)
         sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"],
                             "self-weight " + ("included in dead load" if d["self_weight_included"] else "added")
@@ -222,7 +261,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict) -> pd.DataFrame:
                 "defaults_used": used,
                 "notices": notices,
                 "problems": problems,
-                "notes": list(r.notes) + (r.analysis.notes if r.analysis is not None else [])
+                "notes": list(r.notes) + (member_analysis.notes if member_analysis is not None else [])
                 + ([runs.at[k, "note"]] if k in runs.index and runs.at[k, "note"] else []),
                 "analysis": analysis,
             }

@@ -1,0 +1,69 @@
+"""Supports found in the geometry: joists bearing on walls below them become continuous members,
+their reactions are summed per wall, and an end over nothing is reported (hand calculations,
+common practice; two equal spans under uniform load: interior reaction 1.25 wL, AWC Design Aid
+No. 6, 2007)."""
+
+import pytest
+
+from conftest import PSF, member
+from ifccheck.design import get_basis
+from ifccheck.design.inputs import design_inputs
+from ifccheck.model import ElementBox
+from ifccheck.report.reactions_out import reactions_frame
+from ifccheck.model import ModelUnits
+from ifccheck.rules import load_rules
+
+RULES = {"area_loads": [{"storey": "Level 2", "dead": "10 psf", "live": "40 psf"}]}
+Z_AXIS, DEPTH = 120.0, 9.25
+TOP = Z_AXIS - DEPTH / 2  # the joists' bottom: the walls' top
+
+
+def _wall(name, x):
+    return ElementBox(f"guid-{name}", name, "IfcWall", "wall", "Level 1", (x - 1.75, -20.0, 0.0), (x + 1.75, 100.0, TOP))
+
+
+def _joists(n=5, spacing=16.0, end=289.75):
+    records = []
+    for k in range(n):
+        rec = member(1.5, DEPTH, end + 1.75, {"Species": "DF-L", "Grade": "No.2"}, name=f"J{k + 1}")
+        rec.storey = "Level 2"
+        rec.axis_start = (-1.75, k * spacing, Z_AXIS)
+        rec.axis_end = (end, k * spacing, Z_AXIS)
+        records.append(rec)
+    return records
+
+
+def _check(records, walls):
+    rules = load_rules(RULES)
+    inputs = design_inputs(records, rules, walls)
+    out = get_basis(rules["defaults"]["design_basis"]).check(inputs, rules)
+    return inputs.drop(columns=[c for c in out.columns if c in inputs.columns]).join(out)
+
+
+def test_joists_over_three_walls_are_two_span_members_and_the_walls_get_their_reactions():
+    walls = [_wall("W1", 0.0), _wall("W2", 144.0), _wall("W3", 288.0)]
+    t = _check(_joists(), walls)
+    assert (t["support_count"] == 3).all()
+    assert (t["status"] != "NOT_CHECKED").all(), list(t["reason"])
+    assert set(t["bending_edge"]) == {"bottom"}  # the negative moment over W2 governs
+    reactions = reactions_frame(t, walls, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")
+    # tributary widths 8 + 16 + 16 + 16 + 8 = 64 in; w = 40 psf x 64/12 ft; interior reaction 1.25 wL
+    # the joists also carry load on the a = 1.75 in beyond each end wall's centre: it goes to the end
+    # wall (w·a) and moves the interior reaction by less than 0.1 % (its end moment), hence rel 1e-3
+    w, L, a = 40 * (64 / 12) / 12, 144.0, 1.75  # lbf/in summed over the five joists
+    assert reactions.loc["W2", "live_reaction_lbf"] == pytest.approx(1.25 * w * L, rel=1e-3)
+    assert reactions.loc["W1", "live_reaction_lbf"] == pytest.approx(0.375 * w * L + w * a, rel=1e-3)
+    assert reactions.loc["W2", "member_count"] == 5
+    assert PSF == pytest.approx(1 / 144)
+
+
+def test_an_end_over_nothing_is_not_checked():
+    walls = [_wall("W1", 0.0), _wall("W2", 144.0)]
+    t = _check(_joists(end=289.75), walls)
+    assert (t["status"] == "NOT_CHECKED").all()
+    assert t["reason"].str.contains("no support found at end B").all()
+
+
+def test_without_walls_in_the_model_members_stay_simple_spans():
+    t = _check(_joists(end=142.25), [])
+    assert (t["support_count"] == 2).all()
