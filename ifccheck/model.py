@@ -178,7 +178,7 @@ class ElementBox:
     global_id: str
     name: str
     ifc_class: str
-    kind: str  # "wall", "column", "beam", "member", "slab", "roof", "footing"
+    kind: str  # "wall", "column", "beam", "member", "slab", "roof", "footing", "plate"
     storey: str
     lo: tuple  # (x, y, z) minimum corner
     hi: tuple  # (x, y, z) maximum corner
@@ -205,3 +205,4 @@ class ReadResult:
     structural: object = None
     #: walls, columns, beams, slabs and roofs as boxes, for supports and bracing from the geometry
     elements: list = field(default_factory=list)  # list[ElementBox]
+    unreadable_elements: int = 0  # elements whose box could not be read from their geometry

@@ -121,3 +121,18 @@ def test_console_summary_says_what_the_analysis_data_gave(real_models_dir, tmp_p
     assert code == 0  # nothing fails: the timber is NOT_CHECKED (EN 338 class), the steel skipped
     assert "1 analysis model(s), 176 curve members; linked 17 members by relation" in out
     assert "102 temperature actions ignored" in out
+
+
+def test_timber_frame_and_house_models_members_supports_and_readiness(real_models_dir):
+    # regression guard, counts measured with this version (SOURCES.md: 539 has 19 IfcBeam and 406
+    # IfcMember, Softwood on 422 of them; AC20-FZK-Haus has 46 beams and members, wood only in names)
+    from ifccheck.report.console import readiness
+
+    frame = ifccheck.check_model(real_models_dir / "539--rotated-studs--augmented.ifc")
+    assert len(frame.table) == 125 and len(frame.skipped) == 300
+    assert len(frame.elements) > 0  # walls present: supports are searched in the geometry
+    lacks = dict(readiness(frame.table["problems"]))
+    assert lacks["an NDS species and grade"] == 125 and lacks["loads"] == 123 and lacks["supports"] == 110
+    house = ifccheck.check_model(real_models_dir / "AC20-FZK-Haus.ifc")
+    assert len(house.table) == 46
+    assert dict(readiness(house.table["problems"]))["material not identified"] == 46

@@ -74,27 +74,27 @@ def project_area_loads(record: MemberRecord, entries: list, tributary: "tuple[fl
     return loads, [f"{labels} x {where}"], []
 
 
-def framing_runs(records: "list[MemberRecord]") -> pd.DataFrame:
-    """Framing runs and tributary widths (see :mod:`.framing`) of the members whose axis and section
-    are known; rows indexed by record position."""
+def framing_runs(records: "list[MemberRecord]") -> dict:
+    """Framing runs (see :mod:`.framing`) of the members whose axis and section are known: record
+    position -> (tributary width in, run size, repetitive, note)."""
     known = [k for k, r in enumerate(records) if r.axis_start is not None and r.axis_end is not None and r.section]
     if not known:
-        return pd.DataFrame(columns=["tributary_width", "run_size", "repetitive", "note"])
+        return {}
     runs = tributary_widths(
         np.array([records[k].axis_start for k in known]), np.array([records[k].axis_end for k in known]),
         np.array([records[k].section.width for k in known]), [records[k].storey for k in known],
         names=[records[k].name or records[k].global_id for k in known],
     )
-    runs.index = known
-    return runs
+    return dict(zip(known, zip(runs["tributary_width"].tolist(), runs["run_size"].tolist(),
+                               runs["repetitive"].tolist(), runs["note"].tolist())))
 
 
-def _tributary(record: MemberRecord, runs: pd.DataFrame, k: int) -> "tuple[float, str]":
+def _tributary(record: MemberRecord, run) -> "tuple[float, str]":
     """The input's TributaryWidth wins over the framing run's half spacings."""
     if "TributaryWidth" in record.inputs:
         return record.inputs["TributaryWidth"], "TributaryWidth"
-    if k in runs.index and np.isfinite(runs.at[k, "tributary_width"]):
-        return float(runs.at[k, "tributary_width"]), f"tributary width {runs.at[k, 'tributary_width']:.1f} in (framing run)"
+    if run is not None and np.isfinite(run[0]):
+        return float(run[0]), f"tributary width {run[0]:.1f} in (framing run)"
     return np.nan, ""
 
 
@@ -151,14 +151,14 @@ def geometry_supports(records: "list[MemberRecord]", elements: list, rules: dict
     return out
 
 
-def _repetitive(record, type_default: bool, ptype: str, runs: pd.DataFrame, k: int, defaults_used: list) -> bool:
+def _repetitive(record, type_default: bool, ptype: str, run, defaults_used: list) -> bool:
     """NDS 4.3.9 Cr: the input says; else a framing run of three or more at 24 in or less; else the
     member type's default."""
     if "RepetitiveMember" in record.inputs:
         return bool(record.inputs["RepetitiveMember"])
-    if k in runs.index and runs.at[k, "run_size"] >= 3:
-        found = bool(runs.at[k, "repetitive"])
-        defaults_used.append(f"repetitive member {'yes' if found else 'no'} (framing run of {runs.at[k, 'run_size']})")
+    if run is not None and run[1] >= 3:
+        found = bool(run[2])
+        defaults_used.append(f"repetitive member {'yes' if found else 'no'} (framing run of {run[1]})")
         return found
     defaults_used.append(f"repetitive member {'yes' if type_default else 'no'} ({ptype} default)")
     return type_default
@@ -178,6 +178,12 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
     temperature_default = parse_temperature_f(d["service_temperature"])
     braced_types = set(d["continuously_braced_types"])
     repetitive_types = set(d["repetitive_types"])
+    labels = {  # the defaults' wording, made once
+        "self_weight": "self-weight " + ("included in dead load" if d["self_weight_included"] else "added")
+        + " (rules default)",
+        "bearing": f"bearing length {d['bearing_length']} (rules default)",
+        "temperature": f"service temperature {d['service_temperature']} (rules default)",
+    }
     runs = framing_runs(records)
     found_in_geometry = geometry_supports(records, elements, rules)
     analyses = [r.analysis for r in records] + [a for a, _ in found_in_geometry.values()]
@@ -186,11 +192,12 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
     rows = []
     for k, r in enumerate(records):
         found_analysis, slab = found_in_geometry.get(k, (None, ""))
+        run = runs.get(k)
         member_analysis = r.analysis if r.analysis is not None else found_analysis
         used: list = []
         notices: list = []
         problems = list(r.problems)
-        tributary = _tributary(r, runs, k)
+        tributary = _tributary(r, run)
         loads, load_sources, load_problems = superimposed_loads(r, tributary)
         if not load_sources:  # the input property set's loads win over the project's area loads
             loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary)
@@ -216,9 +223,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
         ptype = r.predefined_type or "NOTDEFINED"
         braced = _bracing(r, ptype in braced_types, ptype, used, slab)
         member_use = rules_member_use(rules, ptype, r.storey)
-        sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"],
-                            "self-weight " + ("included in dead load" if d["self_weight_included"] else "added")
-                            + " (rules default)", used)
+        sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"], labels["self_weight"], used)
         s = r.section
         rows.append(
             {
@@ -245,15 +250,13 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 **{f"w_{t}": loads[t] for t in LOAD_TYPES},
                 "load_sources": "; ".join(load_sources),
                 "self_weight_included": bool(sw_included),
-                "bearing_length": _flag(r, "BearingLength", bearing_default,
-                                        f"bearing length {d['bearing_length']} (rules default)", used),
+                "bearing_length": _flag(r, "BearingLength", bearing_default, labels["bearing"], used),
                 "wet": bool(_flag(r, "WetService", d["wet_service"], "dry service (rules default)", used)),
-                "temperature_F": _flag(r, "ServiceTemperature", temperature_default,
-                                       f"service temperature {d['service_temperature']} (rules default)", used),
+                "temperature_F": _flag(r, "ServiceTemperature", temperature_default, labels["temperature"], used),
                 "incised": bool(d["incised"]),
                 "braced": bool(braced),
                 "unbraced_length": r.inputs.get("UnbracedLength", np.nan),
-                "repetitive": _repetitive(r, ptype in repetitive_types, ptype, runs, k, used),
+                "repetitive": _repetitive(r, ptype in repetitive_types, ptype, run, used),
                 "tributary_width": tributary[0],
                 "member_use": member_use,
                 "n_live_input": r.inputs.get("LiveDeflectionLimit", np.nan),
@@ -262,7 +265,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 "notices": notices,
                 "problems": problems,
                 "notes": list(r.notes) + (member_analysis.notes if member_analysis is not None else [])
-                + ([runs.at[k, "note"]] if k in runs.index and runs.at[k, "note"] else []),
+                + ([run[3]] if run is not None and run[3] else []),
                 "analysis": analysis,
             }
         )

@@ -6,6 +6,7 @@ Only this package imports ifcopenshell; the design code sees the records of ifcc
 from ..model import ReadResult
 from .open import open_model
 from .reader import read_model
+from .elements import read_element_boxes
 from .structural import StructuralSummary, read_structural
 
 __all__ = ["open_model", "read_model", "read_structural", "read_members"]
@@ -21,4 +22,14 @@ def read_members(model, rules: dict) -> ReadResult:
             record.analysis = result.structural.by_member.get(record.global_id)
     else:
         result.structural = StructuralSummary()
+    if _supports_from_geometry(model, rules["defaults"]["supports_from_geometry"]):
+        result.elements, result.unreadable_elements = read_element_boxes(model, result.units.to_core["length"])
     return result
+
+
+def _supports_from_geometry(model, mode: str) -> bool:
+    """Whether to look for supports in the geometry: always, never, or (auto) when the model has
+    walls, columns or footings for members to bear on."""
+    if mode != "auto":
+        return mode == "always"
+    return any(model.by_type(kind) for kind in ("IfcWall", "IfcColumn", "IfcFooting"))

@@ -78,6 +78,8 @@ _LACKS = (
     ("no loads", "loads"),
     ("load group", "load types for the analysis load groups"),
     ("TributaryWidth", "a tributary width"),
+    ("tributary width", "a tributary width"),
+    ("carries", "the members it carries checked first"),
 )
 
 
