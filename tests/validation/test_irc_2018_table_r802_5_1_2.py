@@ -6,7 +6,7 @@ The span search of the checker reproduces the table by the method the tables are
 Cr = 1.15 and CD = 1.0, bending under dead plus live load, deflection under live load only at
 L/240 (the total-load deflection check is switched off for this comparison by an L/1 limit), no
 self-weight beyond the tabulated dead load, compression edge braced. Every entry of the table
-transcribed below must be reproduced within one inch.
+listed below must be reproduced within one inch.
 """
 
 import pytest
