@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import importlib.util
+import sys
 from pathlib import Path
 
 import pytest
@@ -18,6 +20,15 @@ REAL_MODELS = REPO.parent / "shared" / "real_models"
 
 PSF = float(Q_(1, "psf").to("psi").magnitude)  # 1 psf in psi (1/144)
 PLF = float(Q_(1, "plf").to("lbf/inch").magnitude)  # 1 plf in lbf/in (1/12)
+
+
+def load_script(path: Path, name: str):
+    """Import a script of the project that is not part of the package (sample builders, benchmarks)."""
+    spec = importlib.util.spec_from_file_location(name, path)
+    module = importlib.util.module_from_spec(spec)
+    sys.modules[name] = module  # dataclasses look their module up here
+    spec.loader.exec_module(module)
+    return module
 
 
 def member(b, d, span_in, inputs, ptype="JOIST", name="M1", material="", clear=False, plies=1):

@@ -7,9 +7,7 @@ converted values of the imperial one, and that ``benchmarks/make_joists.py`` wri
 
 from __future__ import annotations
 
-import importlib.util
 import math
-import sys
 from pathlib import Path
 
 import ifcopenshell
@@ -19,21 +17,14 @@ import ifcopenshell.util.unit
 import pytest
 
 from ifccheck.model import INPUT_PROPS, INPUT_PSET
+from conftest import load_script
 
 REPO = Path(__file__).resolve().parents[1]
 SAMPLES = REPO / "sample_models"
 
 
-def _load(path: Path, name: str):
-    spec = importlib.util.spec_from_file_location(name, path)
-    module = importlib.util.module_from_spec(spec)
-    sys.modules[name] = module  # dataclasses look their module up here
-    spec.loader.exec_module(module)
-    return module
-
-
-build_samples = _load(SAMPLES / "build_samples.py", "sample_models_build_samples")
-make_joists_module = _load(REPO / "benchmarks" / "make_joists.py", "benchmarks_make_joists")
+build_samples = load_script(SAMPLES / "build_samples.py", "sample_models_build_samples")
+make_joists_module = load_script(REPO / "benchmarks" / "make_joists.py", "benchmarks_make_joists")
 
 FILES = ("quillfeather_imperial.ifc", "quillfeather_metric.ifc", "quillfeather_ifc2x3.ifc")
 

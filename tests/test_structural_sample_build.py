@@ -9,9 +9,7 @@ give the README's hand-calculated reactions, moments, utilizations and deflectio
 
 from __future__ import annotations
 
-import importlib.util
 import math
-import sys
 from pathlib import Path
 
 import ifcopenshell
@@ -19,21 +17,14 @@ import ifcopenshell.util.placement
 import ifcopenshell.validate
 import numpy as np
 import pytest
+from conftest import load_script
 
 REPO = Path(__file__).resolve().parents[1]
 SAMPLES = REPO / "sample_models"
 FILE = SAMPLES / "quillfeather_annex_structural.ifc"
 
 
-def _load(path: Path, name: str):
-    spec = importlib.util.spec_from_file_location(name, path)
-    module = importlib.util.module_from_spec(spec)
-    sys.modules[name] = module  # dataclasses look their module up here
-    spec.loader.exec_module(module)
-    return module
-
-
-builder = _load(SAMPLES / "build_structural_sample.py", "sample_models_build_structural_sample")
+builder = load_script(SAMPLES / "build_structural_sample.py", "sample_models_build_structural_sample")
 
 FT = 12.0  # inches per foot
 
