@@ -67,3 +67,39 @@ def test_an_end_over_nothing_is_not_checked():
 def test_without_walls_in_the_model_members_stay_simple_spans():
     t = _check(_joists(end=142.25), [])
     assert (t["support_count"] == 2).all()
+
+
+def _box(name, kind, lo, hi, cls="IfcColumn"):
+    return ElementBox(f"guid-{name}", name, cls, kind, "Level 1", lo, hi)
+
+
+def test_a_girder_carrying_joists_from_both_sides_gets_their_reactions_summed():
+    # three joists each side at 16 in (tributary 8 + 16 + 8 = 32 in), 12 ft spans, 40 psf live,
+    # bearing on a dropped girder at x = 144 in that sits on two posts; the posts then carry the
+    # joists' reactions at the girder from both sides: 2 x w x (L/2 + a), with w = 40 psf x 32/12 ft
+    # and a = 1.5 in of joist running past the girder's centre (common practice)
+    girder_top = TOP
+    joists = []
+    for side, (x0, x1) in enumerate(((-1.75, 145.5), (142.5, 289.75))):
+        for k in range(3):
+            rec = member(1.5, DEPTH, x1 - x0, {"Species": "DF-L", "Grade": "No.2"}, name=f"J{side}{k}")
+            rec.storey = "Level 2"
+            rec.axis_start, rec.axis_end = (x0, k * 16.0, Z_AXIS), (x1, k * 16.0, Z_AXIS)
+            joists.append(rec)
+    girder = member(3.0, 11.25, 60.0, {"Species": "DF-L", "Grade": "No.1"}, ptype="BEAM", name="G1")
+    girder.storey = "Level 2"
+    girder.axis_start, girder.axis_end = (144.0, -14.0, girder_top - 11.25 / 2), (144.0, 46.0, girder_top - 11.25 / 2)
+    post_top = girder_top - 11.25
+    elements = [
+        _wall("W1", 0.0), _wall("W3", 288.0),
+        _box("P1", "column", (142.25, -15.75, 0.0), (145.75, -12.25, post_top)),
+        _box("P2", "column", (142.25, 44.25, 0.0), (145.75, 47.75, post_top)),
+        _box("G1", "beam", (142.5, -14.0, post_top), (145.5, 46.0, girder_top), cls="IfcBeam"),
+    ]
+    t = _check(joists + [girder], elements)
+    assert (t["status"] != "NOT_CHECKED").all(), list(t.loc[t["status"] == "NOT_CHECKED", "reason"])
+    g = t.set_index("name").loc["G1"]
+    assert "reactions of the members bearing on it" in g["load_sources"]
+    posts = reactions_frame(t, elements, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")
+    w, L, a = 40 * (32 / 12) / 12, 144.0, 1.5  # lbf/in over the three joists of one side
+    assert posts.loc[["P1", "P2"], "live_reaction_lbf"].sum() == pytest.approx(2 * w * (L / 2 + a), rel=1e-3)

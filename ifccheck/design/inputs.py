@@ -199,7 +199,9 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
         problems = list(r.problems)
         tributary = _tributary(r, run)
         loads, load_sources, load_problems = superimposed_loads(r, tributary)
-        if not load_sources:  # the input property set's loads win over the project's area loads
+        # the input property set's loads win over the project's area loads; a member that carries
+        # others takes the floor's area load through them, never directly as well (no double count)
+        if not load_sources and r.global_id not in carriers:
             loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary)
         analysis = member_analysis if (member_analysis is not None and member_analysis.supports) else None
         if member_analysis is not None:
