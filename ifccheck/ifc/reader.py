@@ -86,6 +86,8 @@ _REPRESENTATION = fixed_position("IfcProduct", "Representation", 6)
 _EXTRUDED_DIRECTION = fixed_position("IfcExtrudedAreaSolid", "ExtrudedDirection", 2)
 _EXTRUDED_DEPTH = fixed_position("IfcExtrudedAreaSolid", "Depth", 3)
 _DIRECTION_RATIOS = fixed_position("IfcDirection", "DirectionRatios", 0)
+_POLYLINE_POINTS = fixed_position("IfcPolyline", "Points", 0)
+_COORDINATES = fixed_position("IfcCartesianPoint", "Coordinates", 0)
 
 
 def read_model(model: ifcopenshell.file, rules: dict) -> ReadResult:
@@ -314,6 +316,7 @@ class _ModelReader:
         self._axes: dict = {}
         self._extrusion_axes: dict = {}
         self._profile_centres: dict = {}
+        self._beam_classes: dict = {}
 
     def read(self, element):
         try:
@@ -327,7 +330,7 @@ class _ModelReader:
         type_info = self._type_info(element_type)
         ifc_class = element.is_a()
         predefined = _predefined_type(self._own_predefined_type(element, ifc_class), type_info)
-        is_beam = element.is_a("IfcBeam")
+        is_beam = self._is_beam(element, ifc_class)
         if not is_beam and predefined not in BENDING_MEMBER_TYPES:
             return _skip(element, f"IfcMember of type {predefined} is not a bending member", "not_bending")
         common = _COMMON_PSETS["IfcBeam" if is_beam else "IfcMember"]
@@ -363,6 +366,12 @@ class _ModelReader:
         _guarded(record, "span", self._read_span, record, common, own_psets, type_info, axis)
         record.storey = _guarded(record, "storey", self.relations.storey_name, element) or ""
         return record
+
+    def _is_beam(self, element, ifc_class: str) -> bool:
+        """Whether the element is an IfcBeam or of a subtype, asked once per class."""
+        if ifc_class not in self._beam_classes:
+            self._beam_classes[ifc_class] = element.is_a("IfcBeam")
+        return self._beam_classes[ifc_class]
 
     # --- type objects and geometry -----------------------------------------------------------
 
@@ -743,18 +752,24 @@ def _axis_points(representations: list) -> Optional[list]:
     for identifier, representation in representations:
         items = representation.get_argument(ITEMS) if identifier == "Axis" else None
         if items:
-            curve = items[0]
-            points = _curve_points(curve.get_info(recursive=True)) if curve.is_a() in _AXIS_CURVES else None
+            points = _axis_curve_points(items[0])
             if points is not None and len(points) >= 2:
                 return points
     return None
 
 
-def _curve_points(curve: dict) -> Optional[list]:
-    """Points of a curve given as a get_info dict: polyline, indexed poly curve, or a trimmed line."""
-    kind = curve["type"]
+def _axis_curve_points(curve) -> Optional[list]:
+    """Points of an axis curve: a polyline's read by position (the common axis, and twice as fast),
+    the other followed curves through their get_info dict; None for a curve not followed."""
+    kind = curve.is_a()
     if kind == "IfcPolyline":
-        return [_point3(point["Coordinates"]) for point in curve["Points"]]
+        return [_point3(point.get_argument(_COORDINATES)) for point in curve.get_argument(_POLYLINE_POINTS)]
+    return _curve_points(curve.get_info(recursive=True)) if kind in _AXIS_CURVES else None
+
+
+def _curve_points(curve: dict) -> Optional[list]:
+    """Points of a curve given as a get_info dict: indexed poly curve, or a trimmed line."""
+    kind = curve["type"]
     if kind == "IfcIndexedPolyCurve":
         coordinates = curve["Points"]["CoordList"]
         if curve["Segments"]:
