@@ -98,10 +98,17 @@ def _tributary(record: MemberRecord, run) -> "tuple[float, str]":
     return np.nan, ""
 
 
+def _default_bearing_used(analysis) -> bool:
+    """Whether some support takes the default bearing length (its width is not known from the model)."""
+    return analysis is None or any(not np.isfinite(s.width) for s in analysis.supports)
+
+
 def _flag(record, name, default, label, defaults_used):
+    """The input property's value, else the default, named in ``defaults_used`` (unless no label)."""
     if name in record.inputs:
         return record.inputs[name]
-    defaults_used.append(label)
+    if label:
+        defaults_used.append(label)
     return default
 
 
@@ -156,6 +163,9 @@ def _repetitive(record, type_default: bool, ptype: str, run, defaults_used: list
     member type's default."""
     if "RepetitiveMember" in record.inputs:
         return bool(record.inputs["RepetitiveMember"])
+    if record.section is not None and record.section.plies >= 3:
+        defaults_used.append(f"repetitive member yes ({record.section.plies} plies in contact, NDS 4.3.9)")
+        return True
     if run is not None and run[1] >= 3:
         found = bool(run[2])
         defaults_used.append(f"repetitive member {'yes' if found else 'no'} (framing run of {run[1]})")
@@ -252,7 +262,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 **{f"w_{t}": loads[t] for t in LOAD_TYPES},
                 "load_sources": "; ".join(load_sources),
                 "self_weight_included": bool(sw_included),
-                "bearing_length": _flag(r, "BearingLength", bearing_default, labels["bearing"], used),
+                "bearing_length": _flag(r, "BearingLength", bearing_default,
+                                        labels["bearing"] if _default_bearing_used(analysis) else "", used),
                 "wet": bool(_flag(r, "WetService", d["wet_service"], "dry service (rules default)", used)),
                 "temperature_F": _flag(r, "ServiceTemperature", temperature_default, labels["temperature"], used),
                 "incised": bool(d["incised"]),

@@ -284,7 +284,7 @@ class NdsBasis:
         Fb = t["Fb"].to_numpy(float)
         Fb_neg = t["Fb_neg"].to_numpy(float)  # glulam Fbx− (NDS Supplement Table 5A)
         C_M_b = factors.C_M(product, "Fb", wet, Fb * C_F)
-        C_r = np.where(dimension, factors.C_r(t["repetitive"].to_numpy(bool) | (t["plies"].to_numpy() >= 3)), 1.0)
+        C_r = np.where(dimension, factors.C_r(t["repetitive"].to_numpy(bool)), 1.0)
         C_fu = np.where(dimension, factors.C_fu(nom_t, nom_w, t["flat"].to_numpy(bool)), 1.0)
         C_t = {p: factors.C_t(p, temp, wet) for p in ("Fb", "Fv", "Fc_perp", "E", "Emin")}
         for k in np.flatnonzero(~np.isfinite(C_t["Fb"])):
