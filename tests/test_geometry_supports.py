@@ -44,6 +44,7 @@ def test_joists_over_three_walls_are_two_span_members_and_the_walls_get_their_re
     walls = [_wall("W1", 0.0), _wall("W2", 144.0), _wall("W3", 288.0)]
     t = _check(_joists(), walls)
     assert (t["support_count"] == 3).all()
+    assert t["supports_found"].str.contains("bears on IfcWall 'W2' at 145.8 in").all()  # 1.75 + 144
     assert (t["status"] != "NOT_CHECKED").all(), list(t["reason"])
     assert set(t["bending_edge"]) == {"bottom"}  # the negative moment over W2 governs
     reactions = reactions_frame(t, walls, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")

@@ -150,11 +150,12 @@ def geometry_supports(records: "list[MemberRecord]", elements: list, rules: dict
     found = find_supports(guids, starts, ends, depths, elements, tolerance=tolerance, member_axes=axes)
     slabs = braced_by_slab(guids, starts, ends, depths, elements, tolerance=tolerance)
     plan = np.hypot(*(ends - starts)[:, :2].T)
+    named = {e.global_id: f"{e.ifc_class} '{e.name or e.global_id}'" for e in elements}
     out = {}
     for k, member_supports, slab, length in zip(known, found, slabs, plan):
         notes = [f"support at {s.x:.1f} in: {s.source}" for s in member_supports.supports]
         out[k] = (AnalysisInput(length=float(length), supports=list(member_supports.supports), loads=[],
-                                notes=notes, problems=list(member_supports.problems)), slab)
+                                notes=notes, problems=list(member_supports.problems)), named.get(slab, slab))
     return out
 
 
@@ -271,6 +272,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 "unbraced_length": r.inputs.get("UnbracedLength", np.nan),
                 "repetitive": _repetitive(r, ptype in repetitive_types, ptype, run, used),
                 "tributary_width": tributary[0],
+                "supports_found": "; ".join(f"{sup.source} at {sup.x:.1f} in" for sup in analysis.supports)
+                if analysis is not None else "",
                 "member_use": member_use,
                 "n_live_input": r.inputs.get("LiveDeflectionLimit", np.nan),
                 "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
@@ -290,5 +293,5 @@ _COLUMNS = [
     "plies", "material_name", "material_category", "material_species", "material_grade", "input_species",
     "input_grade", "span_read", "span_is_clear", "span_source", "slope", *LOAD_COLUMNS, "load_sources",
     "self_weight_included", "bearing_length", "wet", "temperature_F", "incised", "braced", "unbraced_length",
-    "repetitive", "tributary_width", "member_use", "n_live_input", "n_total_input", "defaults_used", "notices", "problems", "notes", "analysis",
+    "repetitive", "tributary_width", "supports_found", "member_use", "n_live_input", "n_total_input", "defaults_used", "notices", "problems", "notes", "analysis",
 ]

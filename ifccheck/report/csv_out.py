@@ -68,6 +68,7 @@ def exceptions_frame(rows: pd.DataFrame, units, rules: dict) -> pd.DataFrame:
             "section_source": rows["section_source"],
             "span_source": rows["span_source"],
             "load_sources": rows["load_sources"],
+            "supports": rows["supports_found"],
             "provenance": rows["provenance"],
             "reason": rows["reason"],
         }
