@@ -17,7 +17,8 @@ def read_members(model, rules: dict) -> ReadResult:
     result = read_model(model, rules)
     if model.by_type("IfcStructuralCurveMember"):
         elements = {m.global_id: model.by_guid(m.global_id) for m in result.members}
-        result.structural = read_structural(model, elements, result.units.to_core, rules)
+        axes = {m.global_id: (m.axis_start, m.axis_end) if m.axis_start is not None else None for m in result.members}
+        result.structural = read_structural(model, elements, result.units.to_core, rules, axes)
         for record in result.members:
             record.analysis = result.structural.by_member.get(record.global_id)
     else:

@@ -107,6 +107,20 @@ def read_model(model: ifcopenshell.file, rules: dict) -> ReadResult:
     return ReadResult(schema=model.schema_identifier, units=reader.units, members=members, skipped=skipped)
 
 
+def axis_ends(model: ifcopenshell.file, elements) -> dict:
+    """World axis ends (inches) of any elements, read as the members' are (their 'Axis'
+    representation, else their body extrusion): GlobalId -> (start, end), or None where unknown."""
+    reader = _ModelReader(model, 90.0, _Relations(model, 0))
+    ends = {}
+    for element in elements:
+        try:
+            _, object_matrix, axis = reader._geometry(element)
+        except Exception:  # noqa: BLE001 - odd geometry of one element: its axis is unknown
+            axis = None
+        ends[element.GlobalId] = axis.ends(object_matrix, reader.to_inch) if axis is not None else None
+    return ends
+
+
 @contextlib.contextmanager
 def _no_cycle_collection():
     """Pause Python's cycle collector during the pass.

@@ -49,6 +49,7 @@ import numpy as np
 from ..errors import ModelReadError, RulesError
 from ..model import LOAD_TYPES, AnalysisInput, LoadRecord, SupportRecord
 from ..rules import read_toml, rules_dir
+from .reader import axis_ends
 from .units import project_unit_to_si
 
 # linking and position tolerance: 1 % of the member's length, at least 2 in (common practice)
@@ -94,10 +95,14 @@ class StructuralSummary:
     problems: list = field(default_factory=list)  # model-wide: why the analysis data is not used
 
 
-def read_structural(model: ifcopenshell.file, members: dict, to_core: dict, rules: dict) -> StructuralSummary:
+def read_structural(
+    model: ifcopenshell.file, members: dict, to_core: dict, rules: dict, axes: Optional[dict] = None
+) -> StructuralSummary:
     """Supports and loads from the structural-analysis data for each member linked to it.
 
-    ``members`` maps GlobalId to the physical IfcBeam / IfcMember; ``to_core`` holds the model's
+    ``members`` maps GlobalId to the physical IfcBeam / IfcMember; ``axes`` maps GlobalId to its
+    world axis ends in inches as the member reader found them (read here the same way when not
+    given, see :func:`.reader.axis_ends`); ``to_core`` holds the model's
     unit factors (:class:`~ifccheck.model.ModelUnits`); ``rules`` is the dict of
     :func:`ifccheck.rules.load_rules`, whose optional ``load_groups`` section extends
     rules/load_groups.toml (see :func:`load_group_rules`). Members the analysis model does not
@@ -119,7 +124,7 @@ def read_structural(model: ifcopenshell.file, members: dict, to_core: dict, rule
         )
         return summary
     if reader is not None:
-        summary.by_member = reader.read_all(members)
+        summary.by_member = reader.read_all(members, axes if axes is not None else axis_ends(model, members.values()))
     return summary
 
 
@@ -414,73 +419,6 @@ def _vertex_coordinates(vertex) -> tuple:
     return tuple(float(c) for c in vertex.VertexGeometry.Coordinates)
 
 
-def _physical_axis(element, to_inch: float) -> Optional[_Axis]:
-    """The member's axis in world inches: its 'Axis' polyline's end points, else its body extrusion.
-
-    The extrusion's axis runs through its profile's position (the centre of a rectangle profile).
-    """
-    matrix = _matrix(element.ObjectPlacement)
-    shape = element.Representation
-    representations = shape.Representations if shape is not None else ()
-    curve_ends = _axis_curve_ends(representations)
-    if curve_ends is not None:
-        ends, source = tuple(matrix[:3, :3] @ np.array(point) + matrix[:3, 3] for point in curve_ends), "axis"
-    else:
-        ends, source = _body_extrusion_ends(representations, matrix), "extrusion"
-    if ends is None or np.linalg.norm(ends[1] - ends[0]) == 0:
-        return None
-    return _Axis(ends[0] * to_inch, ends[1] * to_inch, source)
-
-
-def _body_extrusion_ends(representations, matrix: np.ndarray) -> Optional[tuple]:
-    """(start, end) in world model units of the first extrusion of the 'Body' (else any) representation."""
-    ordered = sorted(representations, key=lambda representation: representation.RepresentationIdentifier != "Body")
-    for representation in ordered:
-        for item in representation.Items:
-            ends = _extrusion_ends(item, matrix)
-            if ends is not None:
-                return ends
-    return None
-
-
-def _extrusion_ends(item, matrix: np.ndarray) -> Optional[tuple]:
-    """Ends of an IfcExtrudedAreaSolid's profile-position line, also inside booleans and mapped items."""
-    if item.is_a("IfcExtrudedAreaSolid"):
-        solid = matrix @ (ifc_placement.get_axis2placement(item.Position) if item.Position is not None else np.eye(4))
-        profile_position = getattr(item.SweptArea, "Position", None)
-        centre = profile_position.Location.Coordinates[:2] if profile_position is not None else (0.0, 0.0)
-        start = (solid @ np.array((*centre, 0.0, 1.0)))[:3]
-        direction = np.array(item.ExtrudedDirection.DirectionRatios, dtype=float)
-        return start, start + solid[:3, :3] @ (direction / np.linalg.norm(direction) * float(item.Depth))
-    if item.is_a("IfcBooleanResult"):
-        return _extrusion_ends(item.FirstOperand, matrix)
-    if item.is_a("IfcMappedItem"):
-        mapping = ifc_placement.get_mappeditem_transformation(item)
-        for sub_item in item.MappingSource.MappedRepresentation.Items if mapping is not None else ():
-            ends = _extrusion_ends(sub_item, matrix @ mapping)
-            if ends is not None:
-                return ends
-    return None
-
-
-def _axis_curve_ends(representations) -> Optional[tuple]:
-    """First and last point (object coordinates) of an 'Axis' IfcPolyline or IfcIndexedPolyCurve."""
-    for representation in representations:
-        if representation.RepresentationIdentifier != "Axis" or not representation.Items:
-            continue
-        curve = representation.Items[0]
-        if curve.is_a("IfcPolyline") and len(curve.Points) >= 2:
-            points = [curve.Points[0].Coordinates, curve.Points[-1].Coordinates]
-        elif curve.is_a("IfcIndexedPolyCurve"):
-            coordinates = curve.Points.CoordList
-            indices = [i for segment in curve.Segments or () for i in segment.wrappedValue] or [1, len(coordinates)]
-            points = [coordinates[indices[0] - 1], coordinates[indices[-1] - 1]]
-        else:
-            continue
-        return tuple(tuple(float(c) for c in (*p, 0.0)[:3]) for p in points)
-    return None
-
-
 def _axis_of_curves(curves: list) -> _Axis:
     """The line through the two end points of the curve members farthest apart (few points, all pairs)."""
     points = [p for curve in curves for p in (curve.start, curve.end)]
@@ -672,12 +610,12 @@ class _MemberReader:
     def _node_point(self, connection) -> Optional[np.ndarray]:
         return self.places.vertex(connection, self.places.frame(connection))
 
-    def read_all(self, members: dict) -> dict:
+    def read_all(self, members: dict, axes: dict) -> dict:
         """GlobalId -> AnalysisInput of each member a curve member describes. Every member is linked
         before any is read, so that each knows the checked members it frames into."""
         linked = {}
         for global_id, element in members.items():
-            member = self._link(global_id, element)
+            member = self._link(global_id, element, axes.get(global_id))
             if member is not None:
                 linked[global_id] = member
                 for curve in member.chain.curves if member.chain is not None else ():
@@ -691,12 +629,12 @@ class _MemberReader:
             self.summary.supports += len(result.supports)
         return {global_id: member.result for global_id, member in linked.items()}
 
-    def _link(self, global_id: str, element) -> Optional[_Linked]:
+    def _link(self, global_id: str, element, ends: Optional[tuple]) -> Optional[_Linked]:
         """The member with its chain of curve members, or None when no curve member describes it."""
-        try:
-            axis, axis_problem = _physical_axis(element, self.to_inch), ""
-        except Exception as exc:  # noqa: BLE001 - odd geometry: the relation may still link it
-            axis, axis_problem = None, f"the member's axis cannot be read ({type(exc).__name__}: {exc})"
+        axis = _Axis(np.array(ends[0]), np.array(ends[1]), "axis") if ends is not None else None
+        if axis is not None and not axis.length > 0:
+            axis = None
+        axis_problem = "" if axis is not None else "the member's axis cannot be read"
         entities = self.links.by_relation(element)
         how = "IfcRelAssignsToProduct"
         if not entities and axis is not None:
