@@ -7,7 +7,6 @@ a rerun replaces verdicts instead of stacking them. Values are written in the mo
 
 from __future__ import annotations
 
-import math
 from pathlib import Path
 
 import ifcopenshell

@@ -9,7 +9,6 @@ self-weight beyond the tabulated dead load, compression edge braced. Every entry
 listed below must be reproduced within one inch.
 """
 
-import pytest
 
 from conftest import PSF, member, run_basis
 

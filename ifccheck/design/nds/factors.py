@@ -12,19 +12,6 @@ import numpy as np
 
 from ...rules import read_table
 
-_PROPERTIES = ("Fb", "Ft", "Fv", "Fc_perp", "Fc", "E", "Emin")
-
-
-def C_D(load_types: "list[str]") -> float:
-    """NDS 2018, 2.3.2 and Table 2.3.2: load duration factor of a combination.
-
-    The factor of the shortest-duration load present governs (the largest CD). ``load_types`` are
-    the codes D, L, Lr, S, W of the loads the combination actually carries.
-    """
-    table = read_table("nds2018/load_duration.csv").set_index("load_type")["CD"]
-    return float(max(table[t] for t in load_types)) if load_types else float(table["D"])
-
-
 def C_M(product: np.ndarray, prop: str, wet: np.ndarray, F_times_CF: np.ndarray | None = None) -> np.ndarray:
     """NDS Supplement 2018, Tables 4A/4B/4D/5A adjustment notes: wet service factor.
 
