@@ -172,16 +172,22 @@ class SkippedElement:
 
 @dataclass(frozen=True)
 class ElementBox:
-    """An element that may support or brace members (wall, column, beam, member, slab, roof,
-    footing), as its world axis-aligned bounding box in inches."""
+    """An element that may support, brace or load members (wall, column, beam, member, slab,
+    roof, footing, space), as its world axis-aligned bounding box in inches."""
 
     global_id: str
     name: str
     ifc_class: str
-    kind: str  # "wall", "column", "beam", "member", "slab", "roof", "footing", "plate"
+    kind: str  # "wall", "column", "beam", "member", "slab", "roof", "footing", "plate", "space"
     storey: str
     lo: tuple  # (x, y, z) minimum corner
     hi: tuple  # (x, y, z) maximum corner
+    #: slabs, roofs and spaces: the texts a project rule's ``slab`` or ``space_usage`` is matched
+    #: against (name, object type, type name, classification, and for spaces long name and occupancy)
+    tags: tuple = ()
+    #: slabs and roofs: ((material text, thickness in inches), ...) bottom to top, for the slab's weight
+    layers: tuple = ()
+    layers_source: str = ""  # where the layers came from, e.g. "material layer set", "material and box height"
 
 
 @dataclass

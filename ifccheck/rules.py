@@ -260,8 +260,8 @@ def area_load_entries(entries, text: "_RulesText | None" = None) -> list:
     """The [[area_loads]] entries of a project file, checked, with loads in core units (psi).
 
     Each result has its one selector key (``storey``, ``slab`` or ``space_usage``) with its text,
-    ``dead``, ``live``, ``roof_live`` and ``snow`` in psi (0.0 where not given), ``preset`` (name or
-    None), ``line`` (its ``[[area_loads]]`` line in the file, or None) and ``label`` such as
+    ``dead``, ``live``, ``roof_live`` and ``snow`` in psi (0.0 where not given), ``given`` (the load
+    types the entry or its preset sets), ``preset`` (name or None), ``line`` (its ``[[area_loads]]`` line in the file, or None) and ``label`` such as
     ``area_loads[2] (storey 'Level 2')`` (entries counted from 1).
     """
     text = text or _RulesText("project rules")
@@ -290,8 +290,8 @@ def _area_load_entry(entry: dict, number: int, text: _RulesText) -> dict:
         raise fail(f"{selector} = {target!r} should be a name in quotes, like \"Level 2\"", selector)
     loads = {load_type: 0.0 for load_type in AREA_LOAD_TYPES}
     preset = entry.get("preset")
+    presets = live_load_presets()
     if preset is not None:
-        presets = live_load_presets()
         if preset not in presets:
             raise fail(f"preset = {preset!r} is not a preset of rules/presets/live_loads.csv; "
                        f"expected one of {', '.join(presets)}", "preset")
@@ -307,6 +307,7 @@ def _area_load_entry(entry: dict, number: int, text: _RulesText) -> dict:
     return {
         selector: target,
         **loads,
+        "given": tuple(k for k in AREA_LOAD_TYPES if k in given or (preset is not None and k == presets[preset][0])),
         "preset": preset,
         "line": text.line_of("area_loads", None, number - 1),
         "label": f"area_loads[{number}] ({selector} {target!r})",

@@ -48,10 +48,10 @@ def member(b, d, span_in, inputs, ptype="JOIST", name="M1", material="", clear=F
     )
 
 
-def run_basis(records, rules=None):
-    """Design inputs and NDS verdicts for in-memory members, joined in one table."""
+def run_basis(records, rules=None, elements=None):
+    """Design inputs and NDS verdicts for in-memory members (and ElementBox ``elements``), joined in one table."""
     merged = load_rules(rules)
-    inputs = design_inputs(records, merged)
+    inputs = design_inputs(records, merged, elements)
     verdicts = get_basis(merged["defaults"]["design_basis"]).check(inputs, merged)
     return inputs.drop(columns=[c for c in verdicts.columns if c in inputs.columns]).join(verdicts)
 

@@ -283,11 +283,11 @@ def test_sample_model_members():
 REAL_MODEL_COUNTS = {
     "roof_truss--Axis-Struc.ifc": {"beam": 9, "column": 1},
     "little_steel_frame-3D--Axis-Struc.ifc": {"beam": 59, "column": 27},
-    "AC20-FZK-Haus.ifc": {"beam": 4, "member": 42, "slab": 4, "wall": 13},
+    "AC20-FZK-Haus.ifc": {"beam": 4, "member": 42, "slab": 4, "wall": 13, "space": 7},
     "539--rotated-studs--augmented.ifc": {"beam": 19, "member": 406, "slab": 1, "wall": 22},
     "395--beam--segfault--1--augmented.ifc": {"beam": 1},
     "ISSUE_021_Mini_Project.ifc": {"beam": 1949, "member": 228, "column": 26, "slab": 24},
-    "example.ifc": {"beam": 43, "column": 42, "slab": 9, "wall": 17},
+    "example.ifc": {"beam": 43, "column": 42, "slab": 9, "wall": 17, "space": 1},
     "structural-curve-member.ifc": {},
     "beam-parametric-cross-section.ifc": {"beam": 18},
     "simple_beam.ifc": {},

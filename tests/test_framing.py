@@ -129,6 +129,43 @@ def test_members_meeting_end_to_end_or_farther_than_max_spacing_are_no_neighbour
     assert table["run"].iloc[6] == -1 and math.isnan(table["tributary_width"].iloc[6])
 
 
+def test_joists_lapped_over_a_bearing_wall_are_not_each_others_neighbours():
+    """Two bays of 5 joists at 16 in, the east bay 1.5 in to the side of the west one, lapping
+    12 in over a wall at x = 150 in: each joist still carries 16 in (8 + 8, common practice), not
+    half of the 1.5 in to the joist it laps; the lap (12 of 156 in) is no shared length."""
+    west = row_of_joists(5, 16.0)
+    east = row_of_joists(5, 16.0, origin=(144.0, 1.5))
+    table = run_of(np.vstack([west[0], east[0]]), np.vstack([west[1], east[1]]))
+    interior = table["tributary_width"].iloc[[1, 2, 3, 6, 7, 8]].to_numpy()
+    assert interior == pytest.approx([16.0] * 6, abs=TOL)
+    assert table["run"].iloc[:5].nunique() == 1 and table["run"].iloc[5:].nunique() == 1
+    assert table["run"].iloc[0] != table["run"].iloc[5]
+
+
+def test_a_tail_joist_beside_a_full_joist_is_its_neighbour():
+    """A 60 in tail joist (at a stair opening) midway between full 156 in joists at 32 in runs
+    side by side with them over all its length: neighbours, 16 / 2 + 16 / 2 = 16 in (common practice)."""
+    full = row_of_joists(3, 32.0)
+    tail = row_of_joists(1, 16.0, length=60.0, origin=(96.0, 16.0))
+    table = run_of(np.vstack([full[0], tail[0]]), np.vstack([full[1], tail[1]]))
+    assert table["tributary_width"].iloc[3] == pytest.approx(16.0, abs=TOL)
+    assert table["run_size"].iloc[3] == 4
+
+
+def test_an_edge_overhang_function_gets_the_outward_direction():
+    """The overhang function is called with the edge members' rows and unit vectors pointing
+    away from their neighbour: J-01 at y = 0 outward -y, J-04 at y = 48 outward +y."""
+    seen = {}
+
+    def overhang(rows, mids, outward):
+        seen.update({int(r): tuple(np.round(o, 12)) for r, o in zip(rows, outward)})
+        return np.where(outward[:, 1] > 0, 4.0, 2.0)
+
+    table = run_of(*row_of_joists(4, 16.0), edge_overhang=overhang)
+    assert seen == {0: (0.0, -1.0), 3: (0.0, 1.0)}
+    assert table["tributary_width"].iloc[[0, 3]].to_numpy() == pytest.approx([10.0, 12.0], abs=TOL)
+
+
 # --- axis ends from the reader ---------------------------------------------------------------
 
 

@@ -28,7 +28,7 @@ def test_interior_joists_at_16_in_carry_53_plf_live():
     assert t.loc["J05", "w_L"] / PLF == pytest.approx(40 * 16 / 12, rel=1e-9)  # 53.3 plf
     assert t.loc["J01", "tributary_width"] == pytest.approx(8.0)  # edge of the run: half a spacing
     assert t.loc["J01", "w_L"] / PLF == pytest.approx(40 * 8 / 12, rel=1e-9)
-    assert "area_loads[1] (storey 'Level 2') x tributary width 16.0 in (framing run)" in t.loc["J05", "load_sources"]
+    assert "area_loads[1] (storey 'Level 2') (D, L) x tributary width 16.0 in (framing run)" in t.loc["J05", "load_sources"]
     assert t.loc["J05", "repetitive"]  # NDS 4.3.9: 3 or more at 24 in or less
 
 

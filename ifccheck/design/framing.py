@@ -1,7 +1,7 @@
 """Framing runs found in the members' geometry, and each member's tributary width.
 
-Parallel members in one storey and elevation band whose plan extents overlap along their
-direction may be neighbours; a member's neighbour on each side is the nearest of them across its
+Parallel members in one storey and elevation band that run side by side (their plan extents
+overlap along their direction over most of the shorter one) may be neighbours; a member's neighbour on each side is the nearest of them across its
 direction, at most ``max_spacing`` on centre. Chains of neighbours form a framing RUN (the joists
 of one bay, the rafters of one roof slope); a gap wider than ``max_spacing`` ends a run. Each
 member carries half the spacing to each neighbour.
@@ -14,7 +14,7 @@ bucket turn from its direction). Pure numpy and pandas; all lengths in inches.
 
 from __future__ import annotations
 
-from typing import Optional
+from typing import Callable, Optional
 
 import numpy as np
 import pandas as pd
@@ -25,6 +25,8 @@ from ..errors import IfcCheckError
 REPETITIVE_COUNT = 3
 REPETITIVE_SPACING = 24.0  # in
 
+#: share of the shorter member's length two members must run side by side to share the floor between them
+SHARED_LENGTH = 0.5
 _OVERLAP = 1e-6  # in: plan extents must overlap by more than this (members meeting end to end do not)
 _NO_PLAN = 1e-9  # in: a plan projection shorter than this has no plan direction (vertical or unknown)
 _ROUNDING = 1e-9  # in: rounding allowed on the 24 in limit
@@ -38,7 +40,7 @@ def tributary_widths(
     max_spacing: float = 48.0,
     angle_tol_deg: float = 5.0,
     elevation_band: float = 6.0,
-    edge_overhang: float = 0.0,
+    edge_overhang: "float | Callable" = 0.0,
     names: Optional[list] = None,
 ) -> pd.DataFrame:
     """Framing run, neighbour spacings and tributary width of each member (inches).
@@ -48,7 +50,8 @@ def tributary_widths(
     names used in the notes. Two members are candidates to be neighbours when they are in the
     same storey, parallel in plan within ``angle_tol_deg`` (either sense: an axis drawn the other
     way is the same direction), their mid-points within ``elevation_band`` in height, and their
-    plan extents overlap along their direction, and they do not cut into each other (clear
+    plan extents overlap along their direction over more than half the shorter one's length
+    (``SHARED_LENGTH``; lapped joists are not neighbours), and they do not cut into each other (clear
     distance, centre-to-centre minus half of each width, not negative: a member drawn twice is
     not its own neighbour; NaN widths count as 0). A member's neighbour on each side is the
     nearest candidate, measured across the member's own direction, if it is not farther than
@@ -58,7 +61,9 @@ def tributary_widths(
     joists at 16 in on centre carry 16 in. This is the same as half the clear distance to each
     neighbour plus half the member's own width on each side. An edge member (one neighbour)
     carries half that spacing plus ``edge_overhang`` on its outside; a member with no neighbour
-    gets NaN (unknown).
+    gets NaN (unknown). ``edge_overhang`` is a length, or a function of (input rows of the edge
+    members, their plan mid-points (k, 2), unit plan vectors pointing away from their neighbour
+    (k, 2)) giving each one's overhang: the distance from its centre line to the slab edge.
 
     Columns (index = input order): ``run`` (id of the chain of neighbours, -1 for none),
     ``run_size`` (0 for none), ``spacing_left`` and ``spacing_right`` (centre-to-centre to the
@@ -94,9 +99,10 @@ def tributary_widths(
     table.loc[rows, "run_size"] = run_size
     table.loc[rows, "spacing_left"] = spacing_left
     table.loc[rows, "spacing_right"] = spacing_right
-    table.loc[rows, "tributary_width"] = _tributary(spacing_left, spacing_right, edge_overhang)
+    overhang = layout.edge_overhangs(spacing_left, spacing_right, edge_overhang)
+    table.loc[rows, "tributary_width"] = _tributary(spacing_left, spacing_right, overhang)
     table.loc[rows, "repetitive"] = close_size >= REPETITIVE_COUNT
-    table["note"] = _notes(table, rows, left, right, labels, max_spacing, edge_overhang)
+    table["note"] = _notes(table, rows, left, right, labels, max_spacing, overhang)
     return table
 
 
@@ -144,6 +150,19 @@ class _Layout:
         self.width = np.nan_to_num(widths[rows][order])
         self.low, self.high = ends.min(axis=0)[order], ends.max(axis=0)[order]
 
+    def edge_overhangs(self, spacing_left: np.ndarray, spacing_right: np.ndarray, edge_overhang) -> np.ndarray:
+        """Overhang of each member with a neighbour on one side only (0 for the others): the
+        given length, or what the given function says for the edge members."""
+        overhang = np.zeros(len(self.rows))
+        edge = np.isfinite(spacing_left) != np.isfinite(spacing_right)
+        if not callable(edge_overhang):
+            overhang[edge] = edge_overhang
+        elif edge.any():
+            # the outside is left (across) of a member whose only neighbour is on its right
+            outward = np.where(np.isfinite(spacing_right)[:, None], self.across, -self.across)[edge]
+            overhang[edge] = np.asarray(edge_overhang(self.rows[edge], self.mid[edge, :2], outward), dtype=float)
+        return overhang
+
     def neighbours(self, max_spacing: float, angle_tol: float, band: float) -> tuple:
         """((left, spacing), (right, spacing)): position of each member's nearest neighbour on its
         left and on its right (-1 for none) and the centre-to-centre distance to it (NaN for none).
@@ -176,12 +195,15 @@ class _Layout:
         return tuple(_nearest(m, member[keep], other[keep], distance[keep], side) for side in (1.0, -1.0))
 
     def _candidates(self, i: np.ndarray, j: np.ndarray, angle_tol: float, band: float) -> np.ndarray:
-        """True where members i and j of one bucket may be neighbours: parallel, level and
-        overlapping along their direction."""
+        """True where members i and j of one bucket may be neighbours: parallel, level and side
+        by side over more than ``SHARED_LENGTH`` of the shorter one's length (joists lapped over a
+        bearing, which share only the lap, are not neighbours)."""
         parallel = np.abs(self.angle[i] - self.angle[j]) <= angle_tol
         level = np.abs(self.mid[i, 2] - self.mid[j, 2]) <= band
-        overlap = np.minimum(self.high[i], self.high[j]) - np.maximum(self.low[i], self.low[j]) > _OVERLAP
-        return parallel & level & overlap
+        overlap = np.minimum(self.high[i], self.high[j]) - np.maximum(self.low[i], self.low[j])
+        shorter = np.minimum(self.high[i] - self.low[i], self.high[j] - self.low[j])
+        side_by_side = overlap > np.maximum(_OVERLAP, SHARED_LENGTH * shorter)
+        return parallel & level & side_by_side
 
 
 def _nearest(m: int, member: np.ndarray, other: np.ndarray, distance: np.ndarray, side: float) -> tuple:
@@ -271,11 +293,10 @@ def _plan_vectors(direction: np.ndarray) -> tuple:
     return along, np.column_stack([-along[:, 1], along[:, 0]])
 
 
-def _tributary(left: np.ndarray, right: np.ndarray, edge_overhang: float) -> np.ndarray:
+def _tributary(left: np.ndarray, right: np.ndarray, overhang: np.ndarray) -> np.ndarray:
     """Half the spacing to each neighbour; at an edge half the one spacing plus the overhang."""
     half = np.nan_to_num(left / 2) + np.nan_to_num(right / 2)
-    edge = np.isfinite(left) != np.isfinite(right)
-    return np.where(np.isfinite(left) | np.isfinite(right), half + np.where(edge, edge_overhang, 0.0), np.nan)
+    return np.where(np.isfinite(left) | np.isfinite(right), half + overhang, np.nan)
 
 
 def _runs(m: int, left: np.ndarray, right: np.ndarray) -> tuple:
@@ -312,7 +333,7 @@ def _components(m: int, a: np.ndarray, b: np.ndarray) -> np.ndarray:
             parent = jumped
 
 
-def _notes(table: pd.DataFrame, rows: np.ndarray, left, right, labels: list, max_spacing: float, overhang: float) -> list:
+def _notes(table: pd.DataFrame, rows: np.ndarray, left, right, labels: list, max_spacing: float, overhang: np.ndarray) -> list:
     """One sentence per member saying where its tributary width comes from."""
     notes = ["tributary width unknown: the axis has no plan direction (unknown or vertical)"] * len(table)
     columns = zip(
@@ -320,9 +341,10 @@ def _notes(table: pd.DataFrame, rows: np.ndarray, left, right, labels: list, max
         np.where(left >= 0, rows[left], -1).tolist(),
         np.where(right >= 0, rows[right], -1).tolist(),
         *(table[name].to_numpy()[rows].tolist() for name in ("spacing_left", "spacing_right", "tributary_width", "run_size", "repetitive")),
+        overhang.tolist(),
     )
-    for row, left_row, right_row, s_left, s_right, width, size, repetitive in columns:
-        notes[row] = _note(labels, left_row, right_row, s_left, s_right, width, size, repetitive, max_spacing, overhang)
+    for row, left_row, right_row, s_left, s_right, width, size, repetitive, edge in columns:
+        notes[row] = _note(labels, left_row, right_row, s_left, s_right, width, size, repetitive, max_spacing, edge)
     return notes
 
 

@@ -15,7 +15,9 @@ import pandas as pd
 from ..model import AREA_LOAD_PROPS, LINE_LOAD_PROPS, LOAD_TYPES, AnalysisInput, MemberRecord
 from ..rules import member_use as rules_member_use
 from ..units import parse_quantity, parse_temperature_f
+from .area_loads import project_area_loads, slab_weight
 from .framing import tributary_widths
+from .places import SLAB_KINDS, SPACE_KINDS, edge_overhangs, places_over
 from .supports import braced_by_slab, find_supports
 
 LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
@@ -26,10 +28,6 @@ def _section_text(section) -> str:
         return ""
     ply = f"{section.plies}-ply " if section.plies > 1 else ""
     return f"{ply}{section.ply_width:.3g}x{section.depth:.3g} in"
-
-
-#: load types of the project rules' area loads
-_AREA_LOAD_TYPES = {"dead": "D", "live": "L", "roof_live": "Lr", "snow": "S"}
 
 
 def superimposed_loads(record: MemberRecord, tributary: "tuple[float, str]") -> "tuple[dict, list, list]":
@@ -56,37 +54,42 @@ def superimposed_loads(record: MemberRecord, tributary: "tuple[float, str]") -> 
     return loads, sources, problems
 
 
-def project_area_loads(record: MemberRecord, entries: list, tributary: "tuple[float, str]"):
-    """Line loads from the project rules' area loads for the member's storey times its tributary
-    width: (loads, sources, problems). Entries naming a slab or a space usage are not matched yet."""
-    matching = [e for e in entries if e.get("storey") is not None and e["storey"] == record.storey]
-    loads = {t: 0.0 for t in LOAD_TYPES}
-    if not matching:
-        return loads, [], []
-    width, where = tributary
-    labels = ", ".join(e["label"] for e in matching)
-    if not np.isfinite(width):
-        return loads, [], [f"area loads of {labels} apply but the member has no tributary width "
-                           "(no parallel neighbours found; give TributaryWidth)"]
-    for entry in matching:
-        for key, load_type in _AREA_LOAD_TYPES.items():
-            loads[load_type] += entry.get(key, 0.0) * width
-    return loads, [f"{labels} x {where}"], []
+def _placed(records: "list[MemberRecord]") -> list:
+    """Positions of the records whose axis and section are known (their geometry can be searched)."""
+    return [k for k, r in enumerate(records) if r.axis_start is not None and r.axis_end is not None and r.section]
 
 
-def framing_runs(records: "list[MemberRecord]") -> dict:
+def framing_runs(records: "list[MemberRecord]", places: "dict | None" = None, elements: "list | None" = None,
+                 tolerance: float = 1.0) -> dict:
     """Framing runs (see :mod:`.framing`) of the members whose axis and section are known: record
-    position -> (tributary width in, run size, repetitive, note)."""
-    known = [k for k, r in enumerate(records) if r.axis_start is not None and r.axis_end is not None and r.section]
+    position -> (tributary width in, run size, repetitive, note). ``places`` (record position ->
+    PlacesOver) gives the slab over each member: an edge member's overhang reaches its edge, or
+    halfway to a wall or beam under it beside the member (``elements``, see places.edge_overhangs)."""
+    known = _placed(records)
     if not known:
         return {}
+    places = places or {}
+    edge_notes = {}
+
+    def overhang(rows, mids, outward):
+        positions = [known[row] for row in rows.tolist()]
+        slabs = [places[k].slabs[0][0] if k in places and places[k].slabs else None for k in positions]
+        mids3 = [(*mid, (np.add(records[k].axis_start, records[k].axis_end) / 2)[2]) for k, mid in zip(positions, mids)]
+        found, notes = edge_overhangs([records[k].global_id for k in positions], np.array(mids3),
+                                      [records[k].section.depth for k in positions], outward, slabs,
+                                      elements or [], tolerance)
+        edge_notes.update(zip(positions, notes))
+        return found
+
     runs = tributary_widths(
         np.array([records[k].axis_start for k in known]), np.array([records[k].axis_end for k in known]),
         np.array([records[k].section.width for k in known]), [records[k].storey for k in known],
-        names=[records[k].name or records[k].global_id for k in known],
+        names=[records[k].name or records[k].global_id for k in known], edge_overhang=overhang,
     )
+    notes = [note.replace(" (edge of a run", f" ({edge_notes[k]}; edge of a run", 1) if edge_notes.get(k) else note
+             for k, note in zip(known, runs["note"].tolist())]
     return dict(zip(known, zip(runs["tributary_width"].tolist(), runs["run_size"].tolist(),
-                               runs["repetitive"].tolist(), runs["note"].tolist())))
+                               runs["repetitive"].tolist(), notes)))
 
 
 def _tributary(record: MemberRecord, run) -> "tuple[float, str]":
@@ -159,6 +162,38 @@ def geometry_supports(records: "list[MemberRecord]", elements: list, rules: dict
     return out
 
 
+def members_places(records: "list[MemberRecord]", elements: list, rules: dict) -> dict:
+    """The slabs and spaces over each member whose axis and section are known (record position ->
+    PlacesOver); empty when the model gave no slab, roof or space."""
+    if not any(e.kind in SLAB_KINDS + SPACE_KINDS for e in elements):
+        return {}
+    known = _placed(records)
+    if not known:
+        return {}
+    found = places_over(
+        [records[k].global_id for k in known],
+        np.array([records[k].axis_start for k in known], dtype=float),
+        np.array([records[k].axis_end for k in known], dtype=float),
+        np.array([records[k].section.depth for k in known]), elements,
+        tolerance=parse_quantity(rules["defaults"]["support_tolerance"], "length"),
+    )
+    return dict(zip(known, found))
+
+
+def add_slab_weight(loads: dict, sources: list, places, width: float) -> str:
+    """Add the weight of the slab covering most of the member times its tributary width to the
+    dead load (when the rules say the area dead loads exclude it); returns the problem, if any."""
+    if places is None or not places.slabs:
+        return ("the rules say the area dead loads exclude the slab's weight ([defaults] slab_weight_included "
+                "= false), but no slab was found over the member; model the slab or include its weight")
+    psi, how, problem = slab_weight(places.slabs[0][0])
+    if problem:
+        return problem
+    loads["D"] += psi * width
+    sources.append(f"{how} x {width:.1f} in")
+    return ""
+
+
 def _repetitive(record, type_default: bool, ptype: str, run, defaults_used: list) -> bool:
     """NDS 4.3.9 Cr: the input says; else a framing run of three or more at 24 in or less; else the
     member type's default."""
@@ -195,7 +230,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
         "bearing": f"bearing length {d['bearing_length']} (rules default)",
         "temperature": f"service temperature {d['service_temperature']} (rules default)",
     }
-    runs = framing_runs(records)
+    places = members_places(records, elements, rules)
+    runs = framing_runs(records, places, elements, parse_quantity(d["support_tolerance"], "length"))
     found_in_geometry = geometry_supports(records, elements, rules)
     analyses = [r.analysis for r in records] + [a for a, _ in found_in_geometry.values()]
     carriers = {s.carrier for a in analyses if a is not None for s in a.supports if s.carrier}
@@ -213,7 +249,9 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
         # the input property set's loads win over the project's area loads; a member that carries
         # others takes the floor's area load through them, never directly as well (no double count)
         if not load_sources and r.global_id not in carriers:
-            loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary)
+            loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary, places.get(k))
+            if load_sources and not d["slab_weight_included"]:
+                load_problems += [p for p in [add_slab_weight(loads, load_sources, places.get(k), tributary[0])] if p]
         analysis = member_analysis if (member_analysis is not None and member_analysis.supports) else None
         if member_analysis is not None:
             problems += member_analysis.problems

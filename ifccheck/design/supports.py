@@ -168,16 +168,18 @@ class _BoxTable:
         self.lo, self.hi = np.minimum(lo, hi)[keep], np.maximum(lo, hi)[keep]
 
 
-def _candidates(axes: _Axes, edge: np.ndarray, table: _BoxTable, level: np.ndarray, tolerance: float) -> tuple:
+def _candidates(axes: _Axes, edge: np.ndarray, table: _BoxTable, level, tolerance: float) -> tuple:
     """(member, box) pairs that share a grid cube: the box's footprint widened by ``tolerance``
-    at height ``level``, and the member's plan line at the height of its ``edge`` line (edge at
-    the start plus rise per inch of plan) ± ``tolerance``. A superset of the pairs that meet."""
+    at height ``level`` (one height per box, or a (lowest, highest) pair of arrays), and the
+    member's plan line at the height of its ``edge`` line (edge at the start plus rise per inch
+    of plan) ± ``tolerance``. A superset of the pairs that meet."""
     rows = np.flatnonzero(axes.valid)
     if not len(rows) or not len(table.boxes):
         return np.zeros(0, dtype=int), np.zeros(0, dtype=int)
+    level_low, level_high = level if isinstance(level, tuple) else (level, level)
     box_rows, box_cells = _cells_in_ranges(
-        np.column_stack([_cell(table.lo[:, :2] - tolerance), _cell(level)]),
-        np.column_stack([_cell(table.hi[:, :2] + tolerance), _cell(level)]),
+        np.column_stack([_cell(table.lo[:, :2] - tolerance), _cell(level_low)]),
+        np.column_stack([_cell(table.hi[:, :2] + tolerance), _cell(level_high)]),
     )
     piece_member, low, high = _line_pieces(axes, edge, rows, tolerance)
     piece_rows, line_cells = _cells_in_ranges(low, high)

@@ -23,9 +23,14 @@ def read_members(model, rules: dict) -> ReadResult:
             record.analysis = result.structural.by_member.get(record.global_id)
     else:
         result.structural = StructuralSummary()
-    if _supports_from_geometry(model, rules["defaults"]["supports_from_geometry"]):
-        result.elements, result.unreadable_elements = read_element_boxes(model, result.units.to_core["length"])
+    # every element when supports are searched; else only what area loads and slab edges need
+    kinds = None if _supports_from_geometry(model, rules["defaults"]["supports_from_geometry"]) else _PLACE_KINDS
+    result.elements, result.unreadable_elements = read_element_boxes(model, result.units.to_core["length"], kinds=kinds)
     return result
+
+
+#: element kinds read for area loads by slab and space and for slab edges, when supports are not searched
+_PLACE_KINDS = frozenset({"slab", "roof", "space"})
 
 
 def _supports_from_geometry(model, mode: str) -> bool:

@@ -1,7 +1,8 @@
 """World bounding boxes of the elements that may support or brace members.
 
-Walls, columns, beams, members, slabs, roofs, footings and plates become :class:`ElementBox`
-records: their world axis-aligned box in inches. The box comes from the element's 'Body'
+Walls, columns, beams, members, slabs, roofs, footings, plates and spaces become
+:class:`ElementBox` records: their world axis-aligned box in inches (slabs, roofs and spaces also
+with the texts a project rule names them by, slabs and roofs with their material layers). The box comes from the element's 'Body'
 representation when its items are extrusions (also inside mapped items and the first operand
 of booleans), else from its 'Box' representation, else from the vertices of a faceted or
 polygonal body. An extrusion gives eight points: the corners of its profile's bounding
@@ -23,6 +24,7 @@ import numpy as np
 
 from ..errors import ModelReadError
 from ..model import ElementBox
+from .areas import element_tags, slab_layers
 from .sections import ITEMS, REPRESENTATIONS, ShapeReader, check_positions, fixed_position, identified
 
 #: the classes read (subtypes included) and the kind each gives
@@ -35,7 +37,10 @@ ELEMENT_KINDS = {
     "IfcFooting": "footing",
     "IfcPlate": "plate",
     "IfcRoof": "roof",
+    "IfcSpace": "space",
 }
+#: kinds whose tags (and for slabs and roofs, material layers) are read, see ifccheck.ifc.areas
+_DESCRIBED_KINDS = frozenset({"slab", "roof", "space"})
 
 #: representation identifiers that never hold the body
 _NOT_BODY = frozenset({"Axis", "Box", "FootPrint", "Annotation", "Profile", "Reference", "Clearance", "CoG"})
@@ -69,31 +74,39 @@ _SOLIDS_ONLY, _WITH_VERTICES = False, True  # the two ways a body is read, see _
 
 
 def read_element_boxes(
-    model: ifcopenshell.file, to_inch: float, storeys: Optional[dict] = None, shapes: Optional[ShapeReader] = None
+    model: ifcopenshell.file, to_inch: float, storeys: Optional[dict] = None, shapes: Optional[ShapeReader] = None,
+    kinds: Optional[frozenset] = None,
 ) -> tuple:
     """(boxes, unreadable): an ElementBox of every wall, column, beam, member, slab, footing,
-    plate and roof whose geometry gives one, and how many of those elements gave none.
+    plate, roof and space whose geometry gives one, and how many of those elements gave none.
 
     ``to_inch`` is the factor from the model's length unit to inches. ``storeys`` maps element
     ids to the names of their storeys; without it they are found from the spatial structure.
     ``shapes`` is a ShapeReader that has read placements of this model already (the member
-    reader's), so they are not read twice.
+    reader's), so they are not read twice. ``kinds`` limits the kinds read (e.g. {"slab", "space"}).
     """
     check_positions(model.schema_identifier)
     storey_of = storeys.get if storeys is not None else _StoreyFinder(model).storey_name
     reader = _BoxReader(model, to_inch, shapes or ShapeReader())
     boxes, unreadable = [], 0
     for ifc_class, kind in ELEMENT_KINDS.items():
+        if kinds is not None and kind not in kinds:
+            continue
         for element in model.by_type(ifc_class):
             corners = reader.corners_with_parts(element)
             if corners is None:
                 unreadable += 1
                 continue
-            boxes.append(_element_box(element, kind, storey_of(element.id(), ""), corners))
+            boxes.append(_element_box(element, kind, storey_of(element.id(), ""), corners, to_inch))
     return boxes, unreadable
 
 
-def _element_box(element, kind: str, storey, corners: tuple) -> ElementBox:
+def _element_box(element, kind: str, storey, corners: tuple, to_inch: float) -> ElementBox:
+    tags, layers, layers_source = (), (), ""
+    if kind in _DESCRIBED_KINDS:
+        tags = element_tags(element)
+        if kind != "space":
+            layers, layers_source = slab_layers(element, to_inch, corners[1][2] - corners[0][2])
     return ElementBox(
         global_id=element.get_argument(_GLOBAL_ID),
         name=element.get_argument(_NAME) or "",
@@ -102,6 +115,9 @@ def _element_box(element, kind: str, storey, corners: tuple) -> ElementBox:
         storey=storey or "",
         lo=corners[0],
         hi=corners[1],
+        tags=tags,
+        layers=layers,
+        layers_source=layers_source,
     )
 
 
