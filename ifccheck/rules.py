@@ -204,6 +204,11 @@ def _check_defaults(d: dict, text: _RulesText) -> None:
         parse_temperature_f(d["service_temperature"])
     except UnitError as exc:
         raise text.error(f"[defaults] service_temperature: {exc}", "defaults", "service_temperature") from exc
+    if not 0 <= d["overhang_ratio"] <= 10:
+        raise text.error(
+            f"[defaults] overhang_ratio = {d['overhang_ratio']!r} must be between 0 and 10 (a share of the span)",
+            "defaults", "overhang_ratio",
+        )
     if not 0 < d["max_bending_slope"] <= 90:
         raise text.error(
             f"[defaults] max_bending_slope = {d['max_bending_slope']!r} must be between 0 and 90 degrees",

@@ -142,6 +142,8 @@ MISTAKES = [
     ("[defaults]\nservice_temperature = 'warm'\n", "line 2: [defaults] service_temperature: cannot read 'warm'", 2),
     ("[defaults]\nshear_section = 'middle'\n", "line 2: [defaults] shear_section = 'middle'; expected one of", 2),
     ("[defaults]\nmax_bending_slope = 95.0\n", "line 2: [defaults] max_bending_slope = 95.0 must be between 0 and 90", 2),
+    ("[defaults]\noverhang_ratio = -1.0\n", "line 2: [defaults] overhang_ratio = -1.0 must be between 0 and 10", 2),
+    ("[defaults]\nslab_weight_included = 'no'\n", "line 2: [defaults] slab_weight_included = 'no' should be a bool", 2),
     ("# our loads\n\n[loads]\ndead = 1\n", "line 3: unknown section [loads]", 3),
     ("[member_use]\nJOIST = 'attic'\n", "line 2: [member_use] JOIST: member use 'attic' is not one of", 2),
     ("[member_use_by_storey]\n'Level 2' = 'floor'\n\"Attic\" = 'loft'\n",

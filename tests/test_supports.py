@@ -66,13 +66,35 @@ def test_bearing_length_is_capped_at_the_member_end():
 def test_a_joist_running_over_its_bearing_is_supported_within_the_end_reach():
     """By hand: a joist from x = -4 runs 4 in past the wall at 0..3.5: support 4 + 1.75 =
     5.75 in from its start, 3.5 in long; 4 in is within the 6 in end reach. From x = -10 the
-    wall is 10 - 1 (tolerance) = 9 in away: end A has no support."""
+    wall is 10 - 1 (tolerance) = 9 in away: beyond the end reach, and with overhangs not
+    allowed (overhang_ratio 0) end A has no support; it runs 10 + 1.75 = 11.75 in past it."""
     walls = [wall("W-01", 0.0, 3.5), wall("W-02", 140.5, 144.0)]
     near = supports_of(*joist(-4.0, 144.0), walls)[0]
     assert near.supports[0].x == pytest.approx(5.75, abs=TOL) and near.supports[0].width == pytest.approx(3.5, abs=TOL)
     assert near.problems == []
-    far = supports_of(*joist(-10.0, 144.0), walls)[0]
-    assert len(far.supports) == 2 and far.problems == ["no support found at end A"]
+    far = supports_of(*joist(-10.0, 144.0), walls, overhang_ratio=0.0)[0]
+    assert len(far.supports) == 2
+    assert far.problems == ["no support found at end A (it runs 11.8 in past the support at 11.8 in, too far for an overhang)"]
+
+
+def test_rafter_eaves_past_the_wall_are_an_overhang():
+    """By hand: a member from x = -24 over walls at 0..3.5 and 140.5..144: it runs 24 + 1.75 =
+    25.75 in past W-01, not more than half the 140.5 in span (70.25 in): two supports, no
+    problem; the eaves are checked as a cantilever."""
+    walls = [wall("W-01", 0.0, 3.5), wall("W-02", 140.5, 144.0)]
+    eaves = supports_of(*joist(-24.0, 144.0), walls)[0]
+    assert [s.x for s in eaves.supports] == pytest.approx([25.75, 166.25], abs=TOL)
+    assert eaves.problems == []
+
+
+def test_a_free_end_longer_than_half_the_span_beside_it_is_a_missing_support():
+    """By hand: a joist 0..216 over walls at 0..3.5 and 140.5..144 runs 216 - 142.25 = 73.75 in
+    past W-02, more than half the 140.5 in span (70.25 in): end B has no support."""
+    walls = [wall("W-01", 0.0, 3.5), wall("W-02", 140.5, 144.0)]
+    long_end = supports_of(*joist(0.0, 216.0), walls)[0]
+    assert long_end.problems == [
+        "no support found at end B (it runs 73.8 in past the support at 142.2 in, too far for an overhang)"
+    ]
 
 
 def test_a_joist_over_an_intermediate_bearing_wall_has_three_supports():

@@ -150,7 +150,8 @@ def geometry_supports(records: "list[MemberRecord]", elements: list, rules: dict
     depths = np.array([records[k].section.depth for k in known])
     axes = {r.global_id: (r.axis_start, r.axis_end) for r in records if r.axis_start is not None}
     tolerance = parse_quantity(d["support_tolerance"], "length")
-    found = find_supports(guids, starts, ends, depths, elements, tolerance=tolerance, member_axes=axes)
+    found = find_supports(guids, starts, ends, depths, elements, tolerance=tolerance, member_axes=axes,
+                          overhang_ratio=float(d["overhang_ratio"]))
     slabs = braced_by_slab(guids, starts, ends, depths, elements, tolerance=tolerance)
     plan = np.hypot(*(ends - starts)[:, :2].T)
     named = {e.global_id: f"{e.ifc_class} '{e.name or e.global_id}'" for e in elements}

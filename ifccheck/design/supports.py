@@ -49,6 +49,7 @@ def find_supports(
     tolerance: float = 1.0,
     end_reach: float = 6.0,
     member_axes: Optional[dict] = None,
+    overhang_ratio: float = 0.5,
 ) -> list:
     """Supports of each member found in the geometry: a list of MemberSupports in input order.
 
@@ -69,8 +70,12 @@ def find_supports(
     the member's end (the bearing length, common practice); NaN when the member only reaches
     the widened footprint. Supports whose widened crossings overlap are one bearing (its element
     is the one under the longest crossing, its source names all). An end is supported when a
-    bearing starts within ``end_reach`` of it (members usually run over their bearings);
-    otherwise the problems say "no support found at end A" (start) or "... at end B" (end).
+    bearing starts within ``end_reach`` of it (members usually run over their bearings), or
+    when the member has two bearings or more and runs past the one nearest that end by no more
+    than ``overhang_ratio`` times the span next to it: an overhang, such as rafter eaves or a
+    balcony joist, checked as a cantilever (common practice; a longer free end is more likely a
+    missing support). Otherwise the problems say "no support found at end A" (start) or "... at
+    end B" (end).
     """
     axes = _Axes(starts, ends, depths)
     n = len(axes.plan)
@@ -83,7 +88,7 @@ def find_supports(
     low, high = _range_along(axes.bottom[member], axes.rise[member], crossing.wide_start, crossing.wide_end)
     bears = crossing.crosses & (level >= low - tolerance) & (level <= high + tolerance)
     bearings = _merged(axes, found, crossing.select(bears), _carrier_axes(found, member_axes or {}))
-    return _per_member(axes, bearings, end_reach)
+    return _per_member(axes, bearings, end_reach, overhang_ratio)
 
 
 def braced_by_slab(
@@ -369,7 +374,7 @@ def _sources(table: _BoxTable, box: np.ndarray, first: np.ndarray) -> list:
     return ["bears on " + " and ".join(labels[j] for j in rows[a:b]) for a, b in zip(bounds[:-1], bounds[1:])]
 
 
-def _per_member(axes: _Axes, bearings: _Bearings, end_reach: float) -> list:
+def _per_member(axes: _Axes, bearings: _Bearings, end_reach: float, overhang_ratio: float) -> list:
     """The bearings of each member and the problems: members not searched, ends without support."""
     n = len(axes.plan)
     supports = [[] for _ in range(n)]
@@ -381,6 +386,28 @@ def _per_member(axes: _Axes, bearings: _Bearings, end_reach: float) -> list:
     results = []
     for k, (a, b) in enumerate(zip(end_a.tolist(), end_b.tolist())):
         problem = axes.problem(k)
-        problems = [problem] if problem else [f"no support found at end {end}" for end, ok in (("A", a), ("B", b)) if not ok]
+        held = {"A": a or _overhang(supports[k], 0.0, overhang_ratio),
+                "B": b or _overhang(supports[k][::-1], float(axes.plan[k]), overhang_ratio)}
+        problems = [problem] if problem else [_no_support(end, supports[k], float(axes.plan[k]))
+                                              for end, ok in held.items() if not ok]
         results.append(MemberSupports(supports[k], problems))
     return results
+
+
+def _overhang(ordered: list, end: float, ratio: float) -> bool:
+    """Whether the member's end at ``end`` overhangs the nearest of two or more supports
+    (``ordered`` from that end) by no more than ``ratio`` times the span beside it."""
+    if len(ordered) < 2:
+        return False
+    free, span = abs(ordered[0].x - end), abs(ordered[1].x - ordered[0].x)
+    return free <= ratio * span
+
+
+def _no_support(end: str, supports: list, length: float) -> str:
+    """"no support found at end B", saying how far the member runs past its last one of two or more."""
+    if len(supports) < 2:
+        return f"no support found at end {end}"
+    nearest = supports[0] if end == "A" else supports[-1]
+    free = nearest.x if end == "A" else length - nearest.x
+    return (f"no support found at end {end} (it runs {free:.1f} in past the support at {nearest.x:.1f} in, "
+            "too far for an overhang)")
