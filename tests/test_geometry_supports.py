@@ -104,3 +104,57 @@ def test_a_girder_carrying_joists_from_both_sides_gets_their_reactions_summed():
     posts = reactions_frame(t, elements, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")
     w, L, a = 40 * (32 / 12) / 12, 144.0, 1.5  # lbf/in over the three joists of one side
     assert posts.loc[["P1", "P2"], "live_reaction_lbf"].sum() == pytest.approx(2 * w * (L / 2 + a), rel=1e-3)
+
+
+def test_joists_hung_on_a_flush_girder_hand_it_their_reactions():
+    # the same bay with the girder flush: its top level with the joists' top (2x12 beside 2x10), the
+    # joists ending at its faces (x = 142.5 and 145.5 in). Each joist bears on its wall (centre
+    # line 1.75 in from its end) and hangs on the girder at the face: supports 142.5 in apart, the
+    # joist running 1.75 in past the wall. Reaction at the hanger with the load over the whole
+    # 144.25 in: R = w 144.25 (144.25 / 2 - 1.75) / 142.5 = 71.24 w (statics, common practice);
+    # the posts carry both sides' reactions: 2 x 71.24 w, w = 40 psf x 32/12 ft for three joists
+    joist_top = TOP + DEPTH
+    joists = []
+    for side, (x0, x1) in enumerate(((-1.75, 142.5), (145.5, 289.75))):
+        for k in range(3):
+            rec = member(1.5, DEPTH, x1 - x0, {"Species": "DF-L", "Grade": "No.2"}, name=f"J{side}{k}")
+            rec.storey = "Level 2"
+            rec.axis_start, rec.axis_end = (x0, k * 16.0, Z_AXIS), (x1, k * 16.0, Z_AXIS)
+            joists.append(rec)
+    girder = member(3.0, 11.25, 60.0, {"Species": "DF-L", "Grade": "No.1"}, ptype="BEAM", name="G1")
+    girder.storey = "Level 2"
+    girder_axis = joist_top - 11.25 / 2
+    girder.axis_start, girder.axis_end = (144.0, -14.0, girder_axis), (144.0, 46.0, girder_axis)
+    post_top = joist_top - 11.25
+    elements = [
+        _wall("W1", 0.0), _wall("W3", 288.0),
+        _box("P1", "column", (142.25, -15.75, 0.0), (145.75, -12.25, post_top)),
+        _box("P2", "column", (142.25, 44.25, 0.0), (145.75, 47.75, post_top)),
+        _box("G1", "beam", (142.5, -14.0, post_top), (145.5, 46.0, joist_top), cls="IfcBeam"),
+    ]
+    t = _check(joists + [girder], elements)
+    assert (t["status"] != "NOT_CHECKED").all(), list(t.loc[t["status"] == "NOT_CHECKED", "reason"])
+    j = t.set_index("name").loc["J00"]
+    assert [s.x for s in j["analysis"].supports] == pytest.approx([1.75, 144.25], abs=1e-9)
+    assert j["analysis"].supports[1].source == "hangs on IfcBeam 'G1' (flush: hanger assumed)"
+    assert "reactions of the members bearing on it" in t.set_index("name").loc["G1", "load_sources"]
+    posts = reactions_frame(t, elements, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")
+    w = 40 * (32 / 12) / 12  # lbf/in over the three joists of one side
+    r = w * 144.25 * (144.25 / 2 - 1.75) / 142.5
+    assert posts.loc[["P1", "P2"], "live_reaction_lbf"].sum() == pytest.approx(2 * r, rel=1e-3)
+
+
+def test_rim_joists_meeting_at_a_corner_do_not_hang_on_each_other():
+    # two rim joists in an L, each ending inside the other's end: a corner, not flush framing
+    a = member(1.5, DEPTH, 144.0, {"Species": "DF-L", "Grade": "No.2"}, name="RA")
+    a.axis_start, a.axis_end = (0.0, 0.75, Z_AXIS), (144.0, 0.75, Z_AXIS)
+    b = member(1.5, DEPTH, 144.0, {"Species": "DF-L", "Grade": "No.2"}, name="RB")
+    b.axis_start, b.axis_end = (0.75, 0.0, Z_AXIS), (0.75, 144.0, Z_AXIS)
+    boxes = [_box("RA", "beam", (0.0, 0.0, TOP), (144.0, 1.5, TOP + DEPTH), cls="IfcBeam"),
+             _box("RB", "beam", (0.0, 0.0, TOP), (1.5, 144.0, TOP + DEPTH), cls="IfcBeam"), _wall("W9", 300.0)]
+    for rec in (a, b):
+        rec.storey = "Level 2"
+    t = _check([a, b], boxes).set_index("name")
+    for name in ("RA", "RB"):
+        sources = [s.source for s in t.loc[name, "analysis"].supports] if t.loc[name, "analysis"] is not None else []
+        assert not any("hangs on" in s for s in sources)

@@ -76,6 +76,14 @@ def find_supports(
     balcony joist, checked as a cantilever (common practice; a longer free end is more likely a
     missing support). Otherwise the problems say "no support found at end A" (start) or "... at
     end B" (end).
+
+    Flush framing: a member whose end meets the side of a beam or member (its plan line ends in
+    or within ``tolerance`` of the carrier's footprint, running into it no more than
+    ``end_reach``) with at least half its depth beside the carrier (and the carrier's top above
+    the member's bottom, so it is not a bearing from below), more than ``end_reach`` from the
+    carrier's ends (nearer, it is a corner of two members), hangs on it: a support at the
+    carrier's face, ``width`` NaN (a hanger is assumed; its own capacity is not checked), its
+    source "hangs on ...".
     """
     axes = _Axes(starts, ends, depths)
     n = len(axes.plan)
@@ -87,7 +95,8 @@ def find_supports(
     level = found.hi[box, 2]
     low, high = _range_along(axes.bottom[member], axes.rise[member], crossing.wide_start, crossing.wide_end)
     bears = crossing.crosses & (level >= low - tolerance) & (level <= high + tolerance)
-    bearings = _merged(axes, found, crossing.select(bears), _carrier_axes(found, member_axes or {}))
+    supported = _joined(crossing.select(bears), _hangers(axes, found, guids, tolerance, end_reach))
+    bearings = _merged(axes, found, supported, _carrier_axes(found, member_axes or {}))
     return _per_member(axes, bearings, end_reach, overhang_ratio)
 
 
@@ -289,11 +298,61 @@ class _Crossings:
         start, end = _clip(*line, table.lo[box, :2], table.hi[box, :2])
         self.start, self.end = np.where(start <= end, start, np.nan), np.where(start <= end, end, np.nan)
 
+        self.hangs = np.zeros(len(member), dtype=bool)  # True for a member hung on the box's side
+
+    _FIELDS = ("member", "box", "wide_start", "wide_end", "crosses", "start", "end", "hangs")
+
     def select(self, keep: np.ndarray) -> "_Crossings":
         chosen = object.__new__(_Crossings)
-        for name in ("member", "box", "wide_start", "wide_end", "crosses", "start", "end"):
+        for name in self._FIELDS:
             setattr(chosen, name, getattr(self, name)[keep])
         return chosen
+
+
+def _joined(a: _Crossings, b: _Crossings) -> _Crossings:
+    both = object.__new__(_Crossings)
+    for name in _Crossings._FIELDS:
+        setattr(both, name, np.concatenate([getattr(a, name), getattr(b, name)]))
+    return both
+
+
+def _clear_of_carrier_ends(table: _BoxTable, box: np.ndarray, point: np.ndarray, margin: float) -> np.ndarray:
+    """True where a plan point lies more than ``margin`` from both ends of the box's longer plan
+    side: a member meeting a carrier there frames into its side, not at a corner where two
+    members meet end to side (as rim joists do)."""
+    size = table.hi[box, :2] - table.lo[box, :2]
+    long = np.argmax(size, axis=1)
+    rows = np.arange(len(box))
+    at = point[rows, long]
+    return (at - table.lo[box, long] > margin) & (table.hi[box, long] - at > margin)
+
+
+def _hangers(axes: _Axes, table: _BoxTable, guids: list, tolerance: float, end_reach: float) -> _Crossings:
+    """Members hung on the side of a beam or member at an end (flush framing), as crossings of
+    no modelled length at the carrier's face (see :func:`find_supports`)."""
+    carrier = np.array([b.kind in CARRIER_KINDS for b in table.boxes], dtype=bool)
+    member, box = _candidates(axes, axes.bottom, table, (table.lo[:, 2] - tolerance, table.hi[:, 2] + tolerance), tolerance)
+    member, box = _not_itself(guids, table, member, box)
+    keep = carrier[box] if len(box) else np.zeros(0, dtype=bool)
+    c = _Crossings(axes, table, member[keep], box[keep], tolerance)
+    plan = axes.plan[c.member]
+    into = end_reach + 2 * tolerance  # the most a hung member may run into its carrier's footprint
+    at_a = c.crosses & (c.wide_start <= _NO_PLAN) & (c.wide_end <= into) & (c.wide_end < plan)
+    at_b = c.crosses & (c.wide_end >= plan - _NO_PLAN) & (c.wide_start >= plan - into) & (c.wide_start > 0)
+    bottom = axes.bottom[c.member] + np.where(at_b, axes.rise[c.member] * plan, 0.0)
+    top = bottom + (axes.top - axes.bottom)[c.member]
+    lo, hi = table.lo[c.box, 2], table.hi[c.box, 2]
+    beside = (np.minimum(top, hi) - np.maximum(bottom, lo) >= (top - bottom) / 2) & (hi > bottom + tolerance)
+    # the carrier's face: where the member enters its modelled footprint, else the member's end
+    face = np.where(at_b, np.where(np.isfinite(c.start), c.start, plan), np.where(np.isfinite(c.end), c.end, 0.0))
+    point = axes.start[c.member] + face[:, None] * axes.along[c.member]
+    keep = (at_a | at_b) & beside & _clear_of_carrier_ends(table, c.box, point, end_reach)
+    hung = c.select(keep)
+    # widened by the tolerance, so hangers at one point on two carriers are one support
+    hung.wide_start, hung.wide_end = face[keep] - tolerance, face[keep] + tolerance
+    hung.start, hung.end = np.full(keep.sum(), np.nan), np.full(keep.sum(), np.nan)
+    hung.hangs = np.ones(keep.sum(), dtype=bool)
+    return hung
 
 
 class _CarrierAxes(NamedTuple):
@@ -350,7 +409,7 @@ def _merged(axes: _Axes, table: _BoxTable, found: _Crossings, carriers: _Carrier
     on = member[first]
     point = axes.start[on] + x[:, None] * axes.along[on]
     carrier_x = np.clip(np.einsum("ij,ij->i", point - carriers.start[chosen], carriers.along[chosen]), 0.0, carriers.plan[chosen])
-    sources = _sources(table, box, first)
+    sources = _sources(table, box, first, found.hangs[order])
     records = [
         SupportRecord(
             x=xk,
@@ -366,12 +425,17 @@ def _merged(axes: _Axes, table: _BoxTable, found: _Crossings, carriers: _Carrier
     return _Bearings(on, wide_low, wide_high, records)
 
 
-def _sources(table: _BoxTable, box: np.ndarray, first: np.ndarray) -> list:
-    """"bears on IfcWall 'W-02'" for each bearing, naming every element of a merged one."""
+def _sources(table: _BoxTable, box: np.ndarray, first: np.ndarray, hangs: np.ndarray) -> list:
+    """"bears on IfcWall 'W-02'" for each bearing, naming every element of a merged one; "hangs
+    on IfcBeam 'G-02' (flush: hanger assumed)" for a member hung on a carrier's side."""
     labels = [f"{b.ifc_class} '{b.name or b.global_id}'" for b in table.boxes]
     bounds = np.r_[first, len(box)].tolist()
-    rows = box.tolist()
-    return ["bears on " + " and ".join(labels[j] for j in rows[a:b]) for a, b in zip(bounds[:-1], bounds[1:])]
+    rows, hung = box.tolist(), hangs.tolist()
+    return [
+        "hangs on " + " and ".join(labels[j] for j in rows[a:b]) + " (flush: hanger assumed)" if all(hung[a:b])
+        else "bears on " + " and ".join(labels[j] for j in rows[a:b])
+        for a, b in zip(bounds[:-1], bounds[1:])
+    ]
 
 
 def _per_member(axes: _Axes, bearings: _Bearings, end_reach: float, overhang_ratio: float) -> list:
