@@ -195,6 +195,32 @@ def add_slab_weight(loads: dict, sources: list, places, width: float) -> str:
     return ""
 
 
+def framing_points(analyses: list) -> dict:
+    """Carrier GlobalId -> positions along it (in) where members bear on it or hang on it."""
+    points: dict = {}
+    for a in analyses:
+        for support in (a.supports if a is not None else ()):
+            if support.carrier:
+                points.setdefault(support.carrier, []).append(support.carrier_x)
+    return points
+
+
+def braced_at_framing(analysis: AnalysisInput, points: list, used: list) -> float:
+    """NDS 2018, 3.3.3: the unbraced length of a carrier's top edge held at its supports and at
+    the members framing onto or into it (common practice: joists held by their sheathing brace
+    the beam they bear on): the longest stretch between those points, or of an overhang past
+    them. NaN (unbraced over the stretches) when no framing position is known."""
+    known = [x for x in points if np.isfinite(x)]
+    if not known:
+        return np.nan
+    held = np.unique(np.r_[known, [s.x for s in analysis.supports]])
+    stretches = np.r_[np.diff(held), held[0], analysis.length - held[-1]]
+    lu = float(stretches.max())
+    used.append(f"top edge braced at its supports and at the {len(known)} members framing onto it: "
+                f"lu = {lu:.1f} in (common practice)")
+    return lu
+
+
 def _repetitive(record, type_default: bool, ptype: str, run, defaults_used: list) -> bool:
     """NDS 4.3.9 Cr: the input says; else a framing run of three or more at 24 in or less; else the
     member type's default."""
@@ -235,7 +261,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
     runs = framing_runs(records, places, elements, parse_quantity(d["support_tolerance"], "length"))
     found_in_geometry = geometry_supports(records, elements, rules)
     analyses = [r.analysis for r in records] + [a for a, _ in found_in_geometry.values()]
-    carriers = {s.carrier for a in analyses if a is not None for s in a.supports if s.carrier}
+    framed_at = framing_points(analyses)
+    carriers = set(framed_at)
     area_entries = rules.get("area_loads", [])
     rows = []
     for k, r in enumerate(records):
@@ -274,6 +301,9 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
             problems.append("no loads found (no ifccheck_DesignInput loads)")
         ptype = r.predefined_type or "NOTDEFINED"
         braced = _bracing(r, ptype in braced_types, ptype, used, slab)
+        unbraced = r.inputs.get("UnbracedLength", np.nan)
+        if not braced and "UnbracedLength" not in r.inputs and r.global_id in framed_at and analysis is not None:
+            unbraced = braced_at_framing(analysis, framed_at[r.global_id], used)
         member_use = rules_member_use(rules, ptype, r.storey)
         sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"], labels["self_weight"], used)
         s = r.section
@@ -308,7 +338,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 "temperature_F": _flag(r, "ServiceTemperature", temperature_default, labels["temperature"], used),
                 "incised": bool(d["incised"]),
                 "braced": bool(braced),
-                "unbraced_length": r.inputs.get("UnbracedLength", np.nan),
+                "unbraced_length": unbraced,
                 "repetitive": _repetitive(r, ptype in repetitive_types, ptype, run, used),
                 "tributary_width": tributary[0],
                 "supports_found": "; ".join(f"{sup.source} at {sup.x:.1f} in" for sup in analysis.supports)
