@@ -158,3 +158,37 @@ def test_rim_joists_meeting_at_a_corner_do_not_hang_on_each_other():
     for name in ("RA", "RB"):
         sources = [s.source for s in t.loc[name, "analysis"].supports] if t.loc[name, "analysis"] is not None else []
         assert not any("hangs on" in s for s in sources)
+
+
+def test_a_post_standing_on_a_girder_hands_it_the_beam_reaction():
+    # a 96 in beam B1 (4x10 ... here 3 x 9.25) bears on wall W1 at x = 0 and on post P1 at
+    # x = 96 in; P1 stands at mid-span of girder G1 (144 in between walls WA and WB, along y).
+    # B1's reaction on P1 (simple span, uniform w over its length, common practice) becomes a
+    # point load on G1 at its mid-span: G1's walls carry half of it each (statics).
+    beam_bottom, girder_top = 96.0, 60.0
+    b1 = member(3.0, DEPTH, 99.5, {"Species": "DF-L", "Grade": "No.1", "LiveLoad": 200.0 / 12},
+                ptype="BEAM", name="B1")
+    b1.axis_start, b1.axis_end = (-1.75, 0.0, beam_bottom + DEPTH / 2), (97.75, 0.0, beam_bottom + DEPTH / 2)
+    g1 = member(3.0, 11.25, 147.5, {"Species": "DF-L", "Grade": "No.1", "DeadLoad": 1.0}, ptype="BEAM", name="G1")
+    g1.axis_start, g1.axis_end = (96.0, -73.75, girder_top - 11.25 / 2), (96.0, 73.75, girder_top - 11.25 / 2)
+    for rec in (b1, g1):
+        rec.storey = "Level 1"
+    w1 = ElementBox("guid-W1", "W1", "IfcWall", "wall", "Level 1", (-1.75, -20.0, 0.0), (1.75, 20.0, beam_bottom))
+    p1 = _box("P1", "column", (94.25, -1.75, girder_top), (97.75, 1.75, beam_bottom))
+    wa = ElementBox("guid-WA", "WA", "IfcWall", "wall", "Level 0", (80.0, -73.75, 0.0), (112.0, -70.25, girder_top - 11.25))
+    wb = ElementBox("guid-WB", "WB", "IfcWall", "wall", "Level 0", (80.0, 70.25, 0.0), (112.0, 73.75, girder_top - 11.25))
+    g1_box = _box("G1", "beam", (94.5, -73.75, girder_top - 11.25), (97.5, 73.75, girder_top), cls="IfcBeam")
+    elements = [w1, p1, wa, wb, g1_box]
+    t = _check([b1, g1], elements)
+    assert (t["status"] != "NOT_CHECKED").all(), list(t.loc[t["status"] == "NOT_CHECKED", "reason"])
+    rows = t.set_index("name")
+    on_post = rows.loc["B1", "analysis"].supports[1]
+    assert on_post.source == "bears on IfcColumn 'P1', which stands on 'G1'"
+    assert on_post.carrier_x == pytest.approx(73.75, abs=1e-9)  # G1 runs from y = -73.75
+    # B1: supports at x = 1.75 (wall centre) and 97.75 in (post centre, B1 ends at the post's far
+    # face), w = 200 plf over 99.5 in: R(P1) = w 99.5 (99.5/2 - 1.75) / 96 = 200/12 x 50.79 lbf
+    w = 200.0 / 12
+    r_post = w * 99.5 * (99.5 / 2 - 1.75) / 96.0
+    frame = reactions_frame(t, elements, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")
+    assert frame.loc["P1", "live_reaction_lbf"] == pytest.approx(r_post, rel=1e-6)
+    assert frame.loc[["WA", "WB"], "live_reaction_lbf"].tolist() == pytest.approx([r_post / 2] * 2, rel=1e-6)

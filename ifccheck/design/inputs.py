@@ -8,6 +8,7 @@ came from the model or from a default, so the verdict can name every assumption.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 import pandas as pd
@@ -18,7 +19,7 @@ from ..units import parse_quantity, parse_temperature_f
 from .area_loads import project_area_loads, slab_weight
 from .framing import tributary_widths
 from .places import SLAB_KINDS, SPACE_KINDS, edge_overhangs, places_over
-from .supports import braced_by_slab, find_supports
+from .supports import POST_KINDS, braced_by_slab, find_supports, posts_on_members
 
 LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
 
@@ -152,6 +153,10 @@ def geometry_supports(records: "list[MemberRecord]", elements: list, rules: dict
     tolerance = parse_quantity(d["support_tolerance"], "length")
     found = find_supports(guids, starts, ends, depths, elements, tolerance=tolerance, member_axes=axes,
                           overhang_ratio=float(d["overhang_ratio"]))
+    if any(e.kind in POST_KINDS for e in elements):
+        posts = posts_on_members(guids, starts, ends, depths, elements, tolerance)
+        names = {r.global_id: r.name or r.global_id for r in records}
+        found = [_through_posts(m, posts, guid, names) for m, guid in zip(found, guids)]
     slabs = braced_by_slab(guids, starts, ends, depths, elements, tolerance=tolerance)
     plan = np.hypot(*(ends - starts)[:, :2].T)
     named = {e.global_id: f"{e.ifc_class} '{e.name or e.global_id}'" for e in elements}
@@ -196,13 +201,19 @@ def add_slab_weight(loads: dict, sources: list, places, width: float) -> str:
 
 
 def framing_points(analyses: list) -> dict:
-    """Carrier GlobalId -> positions along it (in) where members bear on it or hang on it."""
+    """(carrier GlobalId -> positions along it (in) where members bear on it or hang on it, the
+    carriers on which members bear or hang directly). A load handed on through a post standing
+    on a carrier gives no position: the post does not brace it, nor carry its floor."""
     points: dict = {}
+    direct = set()
     for a in analyses:
         for support in (a.supports if a is not None else ()):
             if support.carrier:
-                points.setdefault(support.carrier, []).append(support.carrier_x)
-    return points
+                on_it = not support.element or support.element == support.carrier
+                points.setdefault(support.carrier, []).append(support.carrier_x if on_it else np.nan)
+                if on_it:
+                    direct.add(support.carrier)
+    return points, direct
 
 
 def braced_at_framing(analysis: AnalysisInput, points: list, used: list) -> float:
@@ -219,6 +230,19 @@ def braced_at_framing(analysis: AnalysisInput, points: list, used: list) -> floa
     used.append(f"top edge braced at its supports and at the {len(known)} members framing onto it: "
                 f"lu = {lu:.1f} in (common practice)")
     return lu
+
+
+def _through_posts(member_supports, posts: dict, guid: str, names: dict):
+    """A member's supports with those on a column that stands on another candidate member
+    (``names``: GlobalId -> name of the candidates) handed on to that member: the reaction
+    becomes a point load on it where the column stands. The column's own weight is not added."""
+    supports = []
+    for s in member_supports.supports:
+        below = posts.get(s.element)
+        if below is not None and below[0] != guid and below[0] in names and not s.carrier:
+            s = replace(s, carrier=below[0], carrier_x=below[1], source=f"{s.source}, which stands on '{names[below[0]]}'")
+        supports.append(s)
+    return member_supports._replace(supports=supports)
 
 
 def _repetitive(record, type_default: bool, ptype: str, run, defaults_used: list) -> bool:
@@ -261,7 +285,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
     runs = framing_runs(records, places, elements, parse_quantity(d["support_tolerance"], "length"))
     found_in_geometry = geometry_supports(records, elements, rules)
     analyses = [r.analysis for r in records] + [a for a, _ in found_in_geometry.values()]
-    framed_at = framing_points(analyses)
+    # members that carry floor or roof framing directly take their area load through it
+    framed_at, framing_carriers = framing_points(analyses)
     carriers = set(framed_at)
     area_entries = rules.get("area_loads", [])
     rows = []
@@ -276,7 +301,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
         loads, load_sources, load_problems = superimposed_loads(r, tributary)
         # the input property set's loads win over the project's area loads; a member that carries
         # others takes the floor's area load through them, never directly as well (no double count)
-        if not load_sources and r.global_id not in carriers:
+        if not load_sources and r.global_id not in framing_carriers:
             loads, load_sources, load_problems = project_area_loads(r, area_entries, tributary, places.get(k))
             if load_sources and not d["slab_weight_included"]:
                 load_problems += [p for p in [add_slab_weight(loads, load_sources, places.get(k), tributary[0])] if p]

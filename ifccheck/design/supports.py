@@ -130,6 +130,34 @@ def braced_by_slab(
     return braced
 
 
+#: element kinds that stand on members and hand them what they carry
+POST_KINDS = ("column",)
+
+
+def posts_on_members(guids: list, starts: np.ndarray, ends: np.ndarray, depths: np.ndarray, boxes: list,
+                     tolerance: float = 1.0) -> dict:
+    """GlobalId of each column standing on a member -> (member's GlobalId, position along its
+    plan axis in inches). A column stands on a member when its bottom (box low z) is within
+    ``tolerance`` of the member's top where the member's plan line crosses the column's
+    footprint widened by ``tolerance``; the position is the centre of the crossing. Of several
+    members under one column, the one crossing most of its footprint."""
+    axes = _Axes(starts, ends, depths)
+    _check_count(guids, len(axes.plan))
+    posts = _BoxTable(boxes, POST_KINDS)
+    member, box = _candidates(axes, axes.top, posts, posts.lo[:, 2], tolerance)
+    crossing = _Crossings(axes, posts, member, box, tolerance)
+    low, high = _range_along(axes.top[member], axes.rise[member], crossing.wide_start, crossing.wide_end)
+    foot = posts.lo[box, 2]
+    stands = crossing.crosses & (foot >= low - tolerance) & (foot <= high + tolerance)
+    on = crossing.select(stands)
+    x = np.where(np.isfinite(on.start), (on.start + on.end) / 2, (on.wide_start + on.wide_end) / 2)
+    length = on.wide_end - on.wide_start
+    found = {}
+    for k in np.lexsort((length, on.box)).tolist():  # the longest crossing of each column last, so it stays
+        found[posts.boxes[int(on.box[k])].global_id] = (guids[int(on.member[k])], float(x[k]))
+    return found
+
+
 class _Axes:
     """Members' plan lines (start, unit direction, plan length) and the heights of their
     bottom and top edges at the start, with their rise per inch of plan."""

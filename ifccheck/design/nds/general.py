@@ -208,11 +208,12 @@ def _layout(row, cap: SectionCapacity, k: int) -> BeamLayout:
 
 
 def _element_reactions(analysis, result) -> list:
-    """(supporting element's GlobalId, {load type: reaction lbf}) for the supports found on elements."""
+    """(supporting element's GlobalId, {load type: reaction lbf}) for the supports found on
+    elements other than members (walls, columns, footings; also a column standing on a member)."""
     return [
         (support.element, {t: float(case.reactions[j]) for t, case in result.unit_cases.items()})
         for j, support in enumerate(analysis.supports)
-        if support.element and not support.carrier
+        if support.element and support.element != support.carrier  # a member's own reaction is a load on it
     ]
 
 
