@@ -17,7 +17,7 @@ from ifccheck.model import ElementBox
 
 TOP = 120.0 + 9.25 / 2  # joist tops
 DECK = ElementBox("g-deck", "Loft deck", "IfcSlab", "slab", "Loft", (-4.0, -8.0, TOP), (148.0, 152.0, TOP + 0.75),
-                  tags=("Loft deck", "FLOOR", "Deck 3/4"), layers=(("Plywood", 0.75),), layers_source="material layer set")
+                  tags=("Loft deck", "FLOOR", "Deck 3/4"), layers=(("Timber boards", 0.75),), layers_source="material layer set")
 READING = ElementBox("g-read", "R-1", "IfcSpace", "space", "Loft", (-4.0, -8.0, TOP + 0.75), (148.0, 72.0, TOP + 96.0),
                      tags=("R-1", "Reading Room"))
 STACKS = ElementBox("g-stack", "R-2", "IfcSpace", "space", "Loft", (-4.0, 72.0, TOP + 0.75), (148.0, 152.0, TOP + 96.0),
@@ -93,11 +93,14 @@ def test_an_edge_joist_beside_a_wall_shares_the_strip_with_it():
 
 
 def test_the_slab_weight_is_added_when_the_rules_exclude_it():
-    # plywood 0.4 psf per 1/8 in (ASCE 7-16, Table C3.1-1a, from memory): 0.75 in -> 2.4 psf;
-    # x 16/12 ft = 3.2 plf on top of the storey's 10 psf x 16/12 = 13.33 plf
+    # timber boards at the C24 mean density 420 kg/m3 (EN 338:2016, Table 1) = 26.22 lbf/ft3:
+    # 0.75 in -> 26.22 x 0.75 / 12 = 1.639 psf; x 16/12 ft = 2.185 plf on top of the storey's
+    # 10 psf x 16/12 = 13.33 plf (tolerance 0.01 %, the density's rounding)
     t = run_basis(joists(), rules(STOREY, slab_weight_included=False), ELEMENTS).set_index("name")
-    assert t.loc["J05", "w_D"] / PLF == pytest.approx(40 / 3 + 3.2, rel=1e-9)
-    assert "weight of IfcSlab 'Loft deck' 2.4 psf" in t.loc["J05", "load_sources"]
+    deck = 420 * 9.80665 / 4.4482216 * 0.3048**3 * 0.75 / 12  # psf
+    assert deck == pytest.approx(1.639, abs=0.001)
+    assert t.loc["J05", "w_D"] / PLF == pytest.approx(40 / 3 + deck * 16 / 12, rel=1e-4)
+    assert "weight of IfcSlab 'Loft deck' 1.6 psf" in t.loc["J05", "load_sources"]
     assert (t["status"] != "NOT_CHECKED").all()
 
 
@@ -129,11 +132,15 @@ def test_rule_texts_match_tags_ignoring_case_with_wildcards():
 
 def test_unit_weights_convert_and_the_longest_entry_wins():
     # EN 338:2016 Table 1, C24 mean density 420 kg/m3 x 9.80665 m/s2 = 4119 N/m3 = 26.22 lbf/ft3
-    # (unit conversion, tolerance 0.01 lbf/ft3); lightweight concrete (105) beats concrete (150)
+    # (unit conversion, tolerance 0.01 lbf/ft3). Layer by layer, the text "Lightweight Concrete
+    # Topping" takes the table's lightweight concrete row, not its concrete row (the longer entry
+    # wins); the expected weight is the table's two rows times the thicknesses (arithmetic only)
     weights = {" ".join(words): w * 1728 for words, w, _ in unit_weights()}
     assert weights["timber"] == pytest.approx(26.22, abs=0.01)
+    assert weights["lightweight concrete"] != weights["concrete"]
     slab = ElementBox("g", "S", "IfcSlab", "slab", "", (0, 0, 0), (1, 1, 1),
                       layers=(("Lightweight Concrete Topping", 1.5), ("Concrete C25/30", 4.0)))
     psi, how, problem = slab_weight(slab)
     assert problem == ""
-    assert psi * 144 == pytest.approx(105 * 1.5 / 12 + 150 * 4.0 / 12, rel=1e-9)  # 13.125 + 50 = 63.1 psf
+    expected = (weights["lightweight concrete"] * 1.5 + weights["concrete"] * 4.0) / 12  # psf
+    assert psi * 144 == pytest.approx(expected, rel=1e-9)

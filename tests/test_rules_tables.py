@@ -33,6 +33,7 @@ HEADERS = {
     "nds2018/nominal_sizes.csv": "nominal,dressed_in,applies_to,source,status",
     "asce7_16/asd_combinations.csv": "name,D,L,Lr,S,W,source,status",
     "ibc2018/deflection_limits.csv": "member_use,live_n,total_n,source,status",
+    "materials/densities.csv": "word,unit_weight,unit,source,status",
 }
 SOURCED = [name for name, header in HEADERS.items() if header.endswith(("status", "status,notes"))]
 # regional NDS species groups with values of their own: aliased to themselves (no reference rows), so a
