@@ -223,6 +223,8 @@ def test_carriers_take_loads_only_through_the_reactions_of_what_bears_on_them(ta
         row = table.loc[name]
         assert [row["w_D"], row["w_L"], row["w_S"]] == pytest.approx([0.0, 0.0, 0.0], abs=1e-9)
         assert "reactions of the members bearing on it" in row["load_sources"]
+    # the provenance names the members whose reactions it carries
+    assert table.loc["G-01", "load_sources"].endswith("J-01, J-02, J-03, J-04, J-05, J-06, J-07 (7)")
 
 
 # ------------------------------------------------------------------------------------------
@@ -431,4 +433,4 @@ def test_the_ridge_post_stands_on_joist_j09_and_crushes_it_at_the_interior_wall(
     row = table.loc["J-09"]
     assert (row["status"], row["governing_check"], row["comb_bearing"]) == ("FAIL", "BEARING", "D+S")
     assert row["util_bearing"] == pytest.approx(r / (1.5 * 3.5) / (625 * c_b), rel=REL)  # 1.70
-    assert "reactions of the members bearing on it" in row["load_sources"]
+    assert row["load_sources"].endswith("reactions of the members bearing on it: RB-01 through a post (1)")

@@ -192,3 +192,15 @@ def test_a_post_standing_on_a_girder_hands_it_the_beam_reaction():
     frame = reactions_frame(t, elements, ModelUnits(to_core={}, system="imperial"), load_rules(RULES)).set_index("name")
     assert frame.loc["P1", "live_reaction_lbf"] == pytest.approx(r_post, rel=1e-6)
     assert frame.loc[["WA", "WB"], "live_reaction_lbf"].tolist() == pytest.approx([r_post / 2] * 2, rel=1e-6)
+
+
+def test_the_input_bearing_length_wins_over_the_walls_width():
+    # the rule: the bearing length is the supporting element's width (3.5 in walls here)
+    # unless the input property set gives one (2.0 in): every support then bears on 2.0 in
+    records = _joists(n=3)
+    for rec in records:
+        rec.inputs["BearingLength"] = 2.0
+    t = _check(records, [_wall("W1", 0.0), _wall("W2", 144.0), _wall("W3", 288.0)]).set_index("name")
+    assert [s.width for s in t.loc["J2", "analysis"].supports] == pytest.approx([2.0, 2.0, 2.0], abs=1e-12)
+    plain = _check(_joists(n=3), [_wall("W1", 0.0), _wall("W2", 144.0), _wall("W3", 288.0)]).set_index("name")
+    assert [s.width for s in plain.loc["J2", "analysis"].supports] == pytest.approx([3.5, 3.5, 3.5], abs=1e-9)

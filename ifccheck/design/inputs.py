@@ -8,6 +8,7 @@ came from the model or from a default, so the verdict can name every assumption.
 from __future__ import annotations
 
 import math
+from collections import Counter
 from dataclasses import replace
 
 import numpy as np
@@ -200,20 +201,31 @@ def add_slab_weight(loads: dict, sources: list, places, width: float) -> str:
     return ""
 
 
-def framing_points(analyses: list) -> dict:
-    """(carrier GlobalId -> positions along it (in) where members bear on it or hang on it, the
-    carriers on which members bear or hang directly). A load handed on through a post standing
-    on a carrier gives no position: the post does not brace it, nor carry its floor."""
+def framing_points(records: "list[MemberRecord]", found_in_geometry: dict) -> tuple:
+    """(carrier GlobalId -> positions along it (in) where members bear on it or hang on it; the
+    carriers on which members bear or hang directly; carrier GlobalId -> names of the members it
+    carries). A load handed on through a post standing on a carrier gives no position: the post
+    does not brace it, nor carry its floor."""
     points: dict = {}
     direct = set()
-    for a in analyses:
-        for support in (a.supports if a is not None else ()):
+    carried: dict = {}
+    for k, r in enumerate(records):
+        analysis = r.analysis if r.analysis is not None else found_in_geometry.get(k, (None, ""))[0]
+        for support in (analysis.supports if analysis is not None else ()):
             if support.carrier:
                 on_it = not support.element or support.element == support.carrier
                 points.setdefault(support.carrier, []).append(support.carrier_x if on_it else np.nan)
+                carried.setdefault(support.carrier, []).append((r.name or r.global_id) + ("" if on_it else " through a post"))
                 if on_it:
                     direct.add(support.carrier)
-    return points, direct
+    return points, direct, carried
+
+
+def _carried_text(names: list) -> str:
+    """"reactions of the members bearing on it: J-01, J-02 (2)", repeated names counted ("Joist x12")."""
+    counts = Counter(names)
+    listed = ", ".join(name if n == 1 else f"{name} x{n}" for name, n in counts.items())
+    return f"reactions of the members bearing on it: {listed} ({len(names)})"
 
 
 def braced_at_framing(analysis: AnalysisInput, points: list, used: list) -> float:
@@ -284,9 +296,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
     places = members_places(records, elements, rules)
     runs = framing_runs(records, places, elements, parse_quantity(d["support_tolerance"], "length"))
     found_in_geometry = geometry_supports(records, elements, rules)
-    analyses = [r.analysis for r in records] + [a for a, _ in found_in_geometry.values()]
     # members that carry floor or roof framing directly take their area load through it
-    framed_at, framing_carriers = framing_points(analyses)
+    framed_at, framing_carriers, carried = framing_points(records, found_in_geometry)
     carriers = set(framed_at)
     area_entries = rules.get("area_loads", [])
     rows = []
@@ -306,6 +317,8 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
             if load_sources and not d["slab_weight_included"]:
                 load_problems += [p for p in [add_slab_weight(loads, load_sources, places.get(k), tributary[0])] if p]
         analysis = member_analysis if (member_analysis is not None and member_analysis.supports) else None
+        if analysis is not None and "BearingLength" in r.inputs:  # the input wins over the elements' widths
+            analysis = replace(analysis, supports=[replace(s, width=r.inputs["BearingLength"]) for s in analysis.supports])
         if member_analysis is not None:
             problems += member_analysis.problems
             if not member_analysis.supports and member_analysis.loads:
@@ -321,7 +334,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 load_sources, load_problems = ["structural-analysis data"], []
         problems += load_problems
         if r.global_id in carriers:
-            load_sources.append("reactions of the members bearing on it")
+            load_sources.append(_carried_text(carried[r.global_id]))
         if not load_sources:
             problems.append("no loads found (no ifccheck_DesignInput loads)")
         ptype = r.predefined_type or "NOTDEFINED"
