@@ -209,6 +209,13 @@ class _BoxTable:
         self.boxes = [b for b, k in zip(self.boxes, keep.tolist()) if k]
         self.lo, self.hi = np.minimum(lo, hi)[keep], np.maximum(lo, hi)[keep]
 
+    def subset(self, rows: np.ndarray) -> "_BoxTable":
+        """The boxes at these rows (indices into this table)."""
+        part = object.__new__(_BoxTable)
+        part.boxes = [self.boxes[j] for j in rows.tolist()]
+        part.lo, part.hi = self.lo[rows], self.hi[rows]
+        return part
+
 
 def _candidates(axes: _Axes, edge: np.ndarray, table: _BoxTable, level, tolerance: float) -> tuple:
     """(member, box) pairs that share a grid cube: the box's footprint widened by ``tolerance``
@@ -358,11 +365,11 @@ def _clear_of_carrier_ends(table: _BoxTable, box: np.ndarray, point: np.ndarray,
 def _hangers(axes: _Axes, table: _BoxTable, guids: list, tolerance: float, end_reach: float) -> _Crossings:
     """Members hung on the side of a beam or member at an end (flush framing), as crossings of
     no modelled length at the carrier's face (see :func:`find_supports`)."""
-    carrier = np.array([b.kind in CARRIER_KINDS for b in table.boxes], dtype=bool)
-    member, box = _candidates(axes, axes.bottom, table, (table.lo[:, 2] - tolerance, table.hi[:, 2] + tolerance), tolerance)
-    member, box = _not_itself(guids, table, member, box)
-    keep = carrier[box] if len(box) else np.zeros(0, dtype=bool)
-    c = _Crossings(axes, table, member[keep], box[keep], tolerance)
+    rows = np.flatnonzero([b.kind in CARRIER_KINDS for b in table.boxes]).astype(int)
+    carriers = table.subset(rows)
+    member, box = _candidates(axes, axes.bottom, carriers, (carriers.lo[:, 2] - tolerance, carriers.hi[:, 2] + tolerance), tolerance)
+    member, box = _not_itself(guids, table, member, rows[box])
+    c = _Crossings(axes, table, member, box, tolerance)
     plan = axes.plan[c.member]
     into = end_reach + 2 * tolerance  # the most a hung member may run into its carrier's footprint
     at_a = c.crosses & (c.wide_start <= _NO_PLAN) & (c.wide_end <= into) & (c.wide_end < plan)
