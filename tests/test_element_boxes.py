@@ -305,3 +305,48 @@ def test_real_models_read(name):
     assert unreadable == 0
     for box in boxes:  # every box has its low corner at or below its high corner (tolerance 0)
         assert all(lo <= hi for lo, hi in zip(box.lo, box.hi))
+
+
+# --- names and layers of slabs and spaces (ifccheck.ifc.areas) ----------------------------------
+
+
+def test_slab_layers_and_space_names_are_read():
+    """A 19 mm plywood + 38 mm screed slab (layer set on its type) and a room whose usage is in
+    Pset_SpaceOccupancyRequirements: layers 19/25.4 = 0.748 in and 38/25.4 = 1.496 in (exact mm
+    to in), bottom to top; a single-material slab 200 mm thick takes its box height, 7.874 in."""
+    import ifcopenshell.api.classification
+    import ifcopenshell.api.material
+    import ifcopenshell.api.pset
+    import ifcopenshell.api.type
+
+    m = TinyModel("mm")
+    f = m.f
+    plate = f.createIfcRectangleProfileDef("AREA", None, None, 4000.0, 3000.0)
+    deck = m.element("IfcSlab", "Deck 1", m.placement((0, 0, 3000)), [m.extrusion(plate, 57)])
+    deck.PredefinedType = "FLOOR"
+    deck_type = ifcopenshell.api.root.create_entity(f, ifc_class="IfcSlabType", name="Loft deck 57")
+    ifcopenshell.api.type.assign_type(f, related_objects=[deck], relating_type=deck_type)
+    layers = ifcopenshell.api.material.add_material_set(f, name="Deck", set_type="IfcMaterialLayerSet")
+    for name, thickness in (("Plywood", 19.0), ("Cement screed", 38.0)):
+        material = ifcopenshell.api.material.add_material(f, name=name)
+        layer = ifcopenshell.api.material.add_layer(f, layer_set=layers, material=material)
+        layer.LayerThickness = thickness
+    ifcopenshell.api.material.assign_material(f, products=[deck_type], material=layers)
+    system = ifcopenshell.api.classification.add_classification(f, classification="Demo codes")
+    ifcopenshell.api.classification.add_reference(f, products=[deck], identification="23.1", name="Floor decks",
+                                                 classification=system)
+    solid = m.element("IfcSlab", "Ground", m.placement((0, 0, 0)), [m.extrusion(plate, 200)])
+    concrete = ifcopenshell.api.material.add_material(f, name="Concrete", category="concrete")
+    ifcopenshell.api.material.assign_material(f, products=[solid], material=concrete)
+    room = m.element("IfcSpace", "R-2", m.placement((0, 0, 3057)), [m.extrusion(plate, 2400)], contained=False)
+    room.LongName = "Bedroom 2"
+    pset = ifcopenshell.api.pset.add_pset(f, product=room, name="Pset_SpaceOccupancyRequirements")
+    ifcopenshell.api.pset.edit_pset(f, pset=pset, properties={"OccupancyType": "Sleeping"})
+    boxes, _ = m.read()
+    assert boxes["Deck 1"].tags == ("Deck 1", "FLOOR", "Loft deck 57", "23.1", "Floor decks")
+    assert [name for name, _ in boxes["Deck 1"].layers] == ["Plywood", "Cement screed"]
+    assert [t for _, t in boxes["Deck 1"].layers] == pytest.approx([19 * MM, 38 * MM], abs=TOL)
+    assert boxes["Deck 1"].layers_source == "material layer set"
+    assert boxes["Ground"].layers == (("Concrete", pytest.approx(200 * MM, abs=TOL)),)  # Name and Category once
+    assert boxes["R-2"].kind == "space" and boxes["R-2"].tags == ("R-2", "Bedroom 2", "Sleeping")
+    assert boxes["R-2"].layers == ()

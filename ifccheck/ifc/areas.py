@@ -65,8 +65,9 @@ def slab_layers(element: ifcopenshell.entity_instance, to_inch: float, box_heigh
 
 
 def _material_text(material) -> str:
-    """A material's Name and Category (IFC4), e.g. "Concrete C25/30 concrete"; "" for none."""
+    """A material's Name and Category (IFC4) once each ignoring case, e.g. "C25/30 Concrete"; "" for none."""
     if material is None:
         return ""
-    parts = [material.Name, getattr(material, "Category", None)]
-    return " ".join(dict.fromkeys(str(p).strip() for p in parts if p))
+    parts = [str(p).strip() for p in (material.Name, getattr(material, "Category", None)) if p]
+    distinct = {p.casefold(): p for p in reversed(parts)}  # the first spelling of each, ignoring case
+    return " ".join(distinct[key] for key in dict.fromkeys(p.casefold() for p in parts))
