@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import Optional
 
 import pandas as pd
 
@@ -16,7 +17,7 @@ from . import __version__
 from .design import VERDICT_COLUMNS, get_basis
 from .design.inputs import design_inputs
 from .ifc import open_model, read_members
-from .ifc.writer import copy_model, write_model_atomically, write_verdicts
+from .ifc.writer import EarlyCopy, copy_model, write_model_atomically, write_verdicts
 from .model import ModelUnits
 from .report.csv_out import write_exceptions_csv
 from .report.reactions_out import write_reactions_csv
@@ -66,14 +67,18 @@ class CheckResult:
             write_verdicts(self.model, self.table, self.units, self.checked_with)
             self._applied = True
 
-    def write_ifc(self, path) -> Path:
-        """Write the checked model to ``path`` atomically; a host's model stays untouched."""
+    def write_ifc(self, path, early: Optional[EarlyCopy] = None) -> Path:
+        """Write the checked model to ``path`` atomically; a host's model stays untouched.
+        ``early``: the model's copy written since it was opened (started by ``check_model``'s
+        ``on_open``), completed here instead of writing the whole model."""
         if self.owns_model or self._applied:
             self.apply_to_model()
             target = self.model
         else:
             target = copy_model(self.model)
             write_verdicts(target, self.table, self.units, self.checked_with)
+        if early is not None and target is self.model and early.write(target, Path(path)):
+            return Path(path)
         return write_model_atomically(target, Path(path))
 
     @property
@@ -90,15 +95,20 @@ class CheckResult:
         return write_exceptions_csv(self.exceptions(), Path(path), self.units, self.rules)
 
 
-def check_model(model_or_path, rules=None) -> CheckResult:
+def check_model(model_or_path, rules=None, *, parsed=None, on_open=None) -> CheckResult:
     """Check every timber bending member of a model.
 
     ``model_or_path``: a path to an IFC file, or an open ``ifcopenshell.file``. ``rules``: None
-    (rules/ defaults), a path to a project TOML file, or a dict of the same form.
+    (rules/ defaults), a path to a project TOML file, or a dict of the same form. For a path,
+    ``parsed`` is the parse of it started earlier (see :func:`ifccheck.ifc.open_model`), and
+    ``on_open`` is called with the model once it is open, before it is read (the command line
+    starts its :class:`EarlyCopy` there).
     """
     merged = load_rules(rules)
     owns = not hasattr(model_or_path, "by_type")
-    model = open_model(model_or_path) if owns else model_or_path
+    model = open_model(model_or_path, parsed) if owns else model_or_path
+    if owns and on_open is not None:
+        on_open(model)
     read = read_members(model, merged)
     inputs = design_inputs(read.members, merged, read.elements)
     basis = get_basis(merged["defaults"]["design_basis"])

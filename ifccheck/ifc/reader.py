@@ -15,6 +15,7 @@ has by attribute position (see ifccheck.ifc.sections).
 from __future__ import annotations
 
 import contextlib
+import functools
 import gc
 import math
 from dataclasses import dataclass, field, replace
@@ -190,9 +191,9 @@ class _Axis:
             ((ox + ex) * to_inch, (oy + ey) * to_inch, (oz + ez) * to_inch),
         )
 
-    @property
+    @functools.cached_property
     def slope(self) -> float:
-        """Degrees from horizontal."""
+        """Degrees from horizontal (worked out once per axis; members of one direction share it)."""
         horizontal = math.hypot(self.vector[0], self.vector[1])
         slope = math.degrees(math.atan2(abs(self.vector[2]), horizontal))
         return 0.0 if slope < _LEVEL else slope
@@ -246,9 +247,8 @@ class _Relations:
             setattr(self, name, gathered)
         self._storeys: dict = {}
 
-    def type_and_definitions(self, element) -> tuple:
-        """(type object or None, property and quantity set definitions) of an occurrence."""
-        key = element.id()
+    def type_and_definitions(self, element, key: int) -> tuple:
+        """(type object or None, property and quantity set definitions) of an occurrence of id ``key``."""
         element_type, definition = _related(self.types, key), _related(self.definitions, key)
         if element_type is _ASK_ELEMENT or definition is _ASK_ELEMENT:
             return _defined_by(element, self.ifc2x3)
@@ -257,16 +257,17 @@ class _Relations:
             return element_type, []
         return element_type, list(definition) if isinstance(definition, tuple) else [definition]  # IFC4 set of sets
 
-    def material(self, element):
-        """The material definition associated with the element itself, or None."""
-        material = _related(self.materials, element.id())
+    def material(self, element, key: int):
+        """The material definition associated with the element of id ``key`` itself, or None."""
+        material = _related(self.materials, key)
         if material is _ASK_ELEMENT:
             return ifc_element.get_material(element, should_inherit=False)
         return None if material is _UNRELATED else material
 
-    def storey_name(self, element) -> str:
-        """Name of the IfcBuildingStorey containing the element (directly, via spaces, or via its assembly)."""
-        structure = _related(self.containers, element.id())
+    def storey_name(self, element, key: int) -> str:
+        """Name of the IfcBuildingStorey containing the element of id ``key`` (directly, via spaces, or
+        via its assembly)."""
+        structure = _related(self.containers, key)
         if structure is _UNRELATED or structure is _ASK_ELEMENT:  # the assembly or host decides, or several
             return _storey_name(element)
         if structure is None:
@@ -331,6 +332,8 @@ class _ModelReader:
         self._extrusion_axes: dict = {}
         self._profile_centres: dict = {}
         self._beam_classes: dict = {}
+        self._predefined_positions: dict = {}
+        self._span_notes: dict = {}
 
     def read(self, element):
         try:
@@ -339,7 +342,8 @@ class _ModelReader:
             return _unreadable(element, exc)
 
     def _read(self, element):
-        element_type, definitions = self.relations.type_and_definitions(element)
+        key = element.id()
+        element_type, definitions = self.relations.type_and_definitions(element, key)
         own_psets = _by_name(definitions)
         type_info = self._type_info(element_type)
         ifc_class = element.is_a()
@@ -361,7 +365,7 @@ class _ModelReader:
             section=None,
         )
         _guarded(record, "ifccheck_DesignInput", self._read_inputs, record, own_psets, type_info)
-        material = _guarded(record, "material", self._material, element, type_info)
+        material = _guarded(record, "material", self._material, element, key, type_info)
         info, kind, definition = material or (_NO_MATERIAL, UNKNOWN, None)
         record.material = _with_input_identity(info, record.inputs)
         if record.material.kind == "non_timber":
@@ -378,7 +382,7 @@ class _ModelReader:
         if body is not None:
             _guarded(record, "section", self._read_section, record, definition, body, object_matrix, own_psets)
         _guarded(record, "span", self._read_span, record, common, own_psets, type_info, axis)
-        record.storey = _guarded(record, "storey", self.relations.storey_name, element) or ""
+        record.storey = _guarded(record, "storey", self.relations.storey_name, element, key) or ""
         return record
 
     def _is_beam(self, element, ifc_class: str) -> bool:
@@ -409,7 +413,9 @@ class _ModelReader:
 
     def _own_predefined_type(self, element, ifc_class: str) -> str:
         """The occurrence's PredefinedType (IFC2X3 beams and members have none), or what its ObjectType names."""
-        position = attribute_position(self.schema, ifc_class, "PredefinedType")
+        if ifc_class not in self._predefined_positions:
+            self._predefined_positions[ifc_class] = attribute_position(self.schema, ifc_class, "PredefinedType")
+        position = self._predefined_positions[ifc_class]
         predefined = element.get_argument(position) if position is not None else None
         if predefined not in _UNSET_TYPES:
             return predefined
@@ -417,12 +423,12 @@ class _ModelReader:
 
     def _common_property(self, name: str, pset_names: tuple, own_psets: dict, type_info: _TypeInfo) -> Optional[_Found]:
         """A common property of the occurrence, else of its type."""
-        found = _first_property(name, pset_names, own_psets, "occurrence")
+        found = _first_property(name, pset_names, own_psets, "occurrence") if own_psets else None
         return found if found is not None else type_info.common.get((name, pset_names))
 
-    def _material(self, element, type_info: _TypeInfo) -> tuple:
+    def _material(self, element, key: int, type_info: _TypeInfo) -> tuple:
         """(MaterialInfo, MaterialKind, definition): the occurrence's own material, else its type's."""
-        definition = self.relations.material(element)
+        definition = self.relations.material(element, key)
         if definition is None:
             return type_info.material
         return (*self.materials.read(definition, "occurrence"), definition)
@@ -507,11 +513,12 @@ class _ModelReader:
 
     def _section_note(self, section) -> str:
         """The note naming a section and its source, written once per distinct section."""
-        if section not in self._section_notes:
+        key = (section.width, section.depth, section.source, section.profile_name)
+        if key not in self._section_notes:
             named = f" ('{section.profile_name}')" if section.profile_name else ""
             size = format_section(section.width, section.depth, self.units.system)
-            self._section_notes[section] = f"section {size} from {section.source}{named}"
-        return self._section_notes[section]
+            self._section_notes[key] = f"section {size} from {section.source}{named}"
+        return self._section_notes[key]
 
     def _profile_set(self, definition):
         """The material profile set of a material definition (see profile_set_of), found once per definition."""
@@ -539,12 +546,19 @@ class _ModelReader:
         length = axis.length * self.to_inch
         record.span = length * math.cos(math.radians(record.slope))
         record.span_source = axis.source
-        record.notes.append(f"span {format_length(record.span, self.units.system)} from {axis.source}")
+        record.notes.append(self._span_note(record.span, axis.source))
         if record.slope > 0:
             record.notes.append(
                 f"span is the horizontal projection of the sloped length "
                 f"({format_length(length, self.units.system)} at {record.slope:.1f}°)"
             )
+
+    def _span_note(self, span: float, source: str) -> str:
+        """The note of a span read from an axis or extrusion, written once per distinct span."""
+        key = (span, source)
+        if key not in self._span_notes:
+            self._span_notes[key] = f"span {format_length(span, self.units.system)} from {source}"
+        return self._span_notes[key]
 
     def _length(self, prop) -> float:
         """A positive length property in inches (its own unit, else the model's length unit)."""

@@ -156,12 +156,15 @@ class ShapeReader:
         if placement is None:
             return _IDENTITY
         key = placement.id()
-        if key not in self._placements:
+        matrix = self._placements.get(key)
+        if matrix is None:
             if not placement.is_a("IfcLocalPlacement"):
                 raise ModelReadError(f"object placement {placement.is_a()} is not supported")
-            parent = self.object_matrix(placement.get_argument(_PLACEMENT_REL_TO))
-            self._placements[key] = parent @ self.placement_matrix(placement.get_argument(_RELATIVE_PLACEMENT))
-        return self._placements[key]
+            relative_to = placement.get_argument(_PLACEMENT_REL_TO)
+            parent = self.object_matrix(relative_to) if relative_to is not None else _IDENTITY
+            matrix = parent @ self.placement_matrix(placement.get_argument(_RELATIVE_PLACEMENT))
+            self._placements[key] = matrix
+        return matrix
 
     def placement_matrix(self, placement) -> np.ndarray:
         """4x4 matrix of an IfcAxis2Placement3D or 2D entity, as :func:`axis_matrix` gives for its dict."""

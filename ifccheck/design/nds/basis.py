@@ -56,13 +56,17 @@ _NAN = object()  # stands for NaN in the keys of per_distinct
 
 def per_distinct(t: pd.DataFrame, columns: list, fn) -> list:
     """``fn(*values)`` for every row, computed once per distinct combination of ``columns``."""
+    values = [t[c].tolist() for c in columns]
+    keys = [  # every NaN is one key (NaN != NaN)
+        [_NAN if v != v else v for v in column] if t[c].isna().any() else column
+        for c, column in zip(columns, values)
+    ]
     cache: dict = {}
     out = []
-    for key in zip(*(t[c].tolist() for c in columns)):
-        hashable = tuple(_NAN if v != v else v for v in key)  # every NaN is one key (NaN != NaN)
-        if hashable not in cache:
-            cache[hashable] = fn(*key)
-        out.append(cache[hashable])
+    for key, row in zip(zip(*keys), zip(*values)):
+        if key not in cache:
+            cache[key] = fn(*row)
+        out.append(cache[key])
     return out
 
 
@@ -158,8 +162,10 @@ def _load_path_problems(t: pd.DataFrame, problems: list) -> None:
     is then unknown), cannot be checked either."""
     if "analysis" not in t:
         return
-    names = [f"{n or g}" for n, g in zip(t["name"], t["global_id"])]
     edges = carrier_edges(list(t["global_id"]), list(t["analysis"]))
+    if not edges:  # no member bears on another: no cycle, nothing carried
+        return
+    names = [f"{n or g}" for n, g in zip(t["name"], t["global_id"])]
     levels, cyclic = dependency_levels(len(t), edges)
     for k in sorted(cyclic):
         problems[k].append("on a cycle of members bearing on each other; the load path cannot be ordered")
@@ -392,6 +398,7 @@ class NdsBasis:
         combos = out[_COMB_COLUMNS].to_numpy(object)
         slender = out["slender"].to_numpy(bool)
         governing = out["governing_check"].to_numpy(object)
+        largest = util.max(axis=1).tolist()
         reasons = []
         for k in range(len(out)):
             assumed = notices[k] + (("; assumed: " + "; ".join(used[k])) if used[k] else "")
@@ -406,5 +413,5 @@ class NdsBasis:
                 brace = " (RB above 50, NDS 3.3.3.7: brace the compression edge)" if slender[k] else ""
                 reasons.append(f"fails {failing}{brace}{assumed}")
             else:
-                reasons.append(f"all checks pass, governing {governing[k]} {util[k].max():.2f}{assumed}")
+                reasons.append(f"all checks pass, governing {governing[k]} {largest[k]:.2f}{assumed}")
         out["reason"] = reasons
