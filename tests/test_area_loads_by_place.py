@@ -144,3 +144,23 @@ def test_unit_weights_convert_and_the_longest_entry_wins():
     assert problem == ""
     expected = (weights["lightweight concrete"] * 1.5 + weights["concrete"] * 4.0) / 12  # psf
     assert psi * 144 == pytest.approx(expected, rel=1e-9)
+
+
+def test_a_run_under_one_slab_is_repetitive_and_without_a_slab_the_type_decides():
+    # NDS 2018, 4.3.9: three or more members at 24 in or less joined by load-distributing elements
+    # (the deck). Ten BEAM-type members at 16 in: under the deck repetitive; with no slab in the
+    # model the BEAM default (not repetitive) applies; at 32 in never (spacing over 24 in)
+    def beams(spacing=16.0):
+        records = joists(spacing=spacing)
+        for rec in records:
+            rec.predefined_type = "BEAM"
+        return records
+
+    under = run_basis(beams(), rules(STOREY), ELEMENTS).set_index("name")
+    assert under["repetitive"].all()
+    assert "repetitive member yes (framing run of 10 under IfcSlab 'Loft deck')" in under.loc["J05", "reason"]
+    bare = run_basis(beams(), rules(STOREY), []).set_index("name")
+    assert not bare["repetitive"].any()
+    assert "framing run of 10 but no slab found over it; BEAM default" in bare.loc["J05", "reason"]
+    wide = run_basis(beams(32.0), rules(STOREY), ELEMENTS).set_index("name")
+    assert not wide["repetitive"].any()

@@ -70,7 +70,8 @@ def tributary_widths(
     neighbour on the left and right looking along the member in the run's direction, the one
     between 0° and 180° from +x towards +y; NaN where there is none), ``tributary_width``, ``repetitive``
     (NDS 2018, 4.3.9: in a chain of three or more neighbours each at 24 in on centre or less; the
-    load-distributing sheathing the clause also asks for is not checked here) and ``note``.
+    load-distributing sheathing the clause also asks for is the caller's to find: the design
+    inputs look for a slab over the member) and ``note``.
     """
     start, end = np.asarray(axes_start, dtype=float), np.asarray(axes_end, dtype=float)
     n = len(start)

@@ -257,20 +257,32 @@ def _through_posts(member_supports, posts: dict, guid: str, names: dict):
     return member_supports._replace(supports=supports)
 
 
-def _repetitive(record, type_default: bool, ptype: str, run, defaults_used: list) -> bool:
-    """NDS 4.3.9 Cr: the input says; else a framing run of three or more at 24 in or less; else the
-    member type's default."""
+def _repetitive(record, type_default: bool, ptype: str, run, slab: str, defaults_used: list) -> bool:
+    """NDS 4.3.9 Cr: the input says; else three plies or more in contact; else a framing run of
+    three or more: at 24 in or less under a slab (``slab``, the one over the member) yes, wider
+    apart no; else (no run, or no slab to distribute the load) the member type's default."""
     if "RepetitiveMember" in record.inputs:
         return bool(record.inputs["RepetitiveMember"])
     if record.section is not None and record.section.plies >= 3:
         defaults_used.append(f"repetitive member yes ({record.section.plies} plies in contact, NDS 4.3.9)")
         return True
-    if run is not None and run[1] >= 3:
-        found = bool(run[2])
-        defaults_used.append(f"repetitive member {'yes' if found else 'no'} (framing run of {run[1]})")
-        return found
-    defaults_used.append(f"repetitive member {'yes' if type_default else 'no'} ({ptype} default)")
+    if run is not None and run[1] >= 3 and not run[2]:
+        defaults_used.append(f"repetitive member no (framing run of {run[1]} spaced more than 24 in)")
+        return False
+    if run is not None and run[1] >= 3 and slab:
+        defaults_used.append(f"repetitive member yes (framing run of {run[1]} under {slab})")
+        return True
+    why = f"framing run of {run[1]} but no slab found over it; " if run is not None and run[1] >= 3 else ""
+    defaults_used.append(f"repetitive member {'yes' if type_default else 'no'} ({why}{ptype} default)")
     return type_default
+
+
+def _slab_over(places) -> str:
+    """"IfcSlab 'S-01'": the slab or roof covering most of the member, "" for none."""
+    if places is None or not places.slabs:
+        return ""
+    slab = places.slabs[0][0]
+    return f"{slab.ifc_class} '{slab.name or slab.global_id}'"
 
 
 def _held(supports) -> bool:
@@ -377,7 +389,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
                 "incised": bool(d["incised"]),
                 "braced": bool(braced),
                 "unbraced_length": unbraced,
-                "repetitive": _repetitive(r, ptype in repetitive_types, ptype, run, used),
+                "repetitive": _repetitive(r, ptype in repetitive_types, ptype, run, _slab_over(places.get(k)), used),
                 "tributary_width": tributary[0],
                 "supports_found": "; ".join(f"{sup.source} at {sup.x:.1f} in" for sup in analysis.supports)
                 if analysis is not None else "",
