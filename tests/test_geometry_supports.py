@@ -74,14 +74,12 @@ def _box(name, kind, lo, hi, cls="IfcColumn"):
     return ElementBox(f"guid-{name}", name, cls, kind, "Level 1", lo, hi)
 
 
-def test_a_girder_carrying_joists_from_both_sides_gets_their_reactions_summed():
-    # three joists each side at 16 in (tributary 8 + 16 + 8 = 32 in), 12 ft spans, 40 psf live,
-    # bearing on a dropped girder at x = 144 in that sits on two posts; the posts then carry the
-    # joists' reactions at the girder from both sides: 2 x w x (L/2 + a), with w = 40 psf x 32/12 ft
-    # and a = 1.5 in of joist running past the girder's centre (common practice)
-    girder_top = TOP
+def _girder_bay(girder_top: float, joist_ends: tuple) -> tuple:
+    """(records, elements): three 2x10 joists at 16 in on each side of a 2-ply 2x12 girder G1
+    along x = 144 in (top at ``girder_top``) on posts P1 and P2, the joists from the walls W1 and
+    W3 to the girder, running over (x0, x1) of ``joist_ends`` on each side."""
     joists = []
-    for side, (x0, x1) in enumerate(((-1.75, 145.5), (142.5, 289.75))):
+    for side, (x0, x1) in enumerate(joist_ends):
         for k in range(3):
             rec = member(1.5, DEPTH, x1 - x0, {"Species": "DF-L", "Grade": "No.2"}, name=f"J{side}{k}")
             rec.storey = "Level 2"
@@ -89,7 +87,8 @@ def test_a_girder_carrying_joists_from_both_sides_gets_their_reactions_summed():
             joists.append(rec)
     girder = member(3.0, 11.25, 60.0, {"Species": "DF-L", "Grade": "No.1"}, ptype="BEAM", name="G1")
     girder.storey = "Level 2"
-    girder.axis_start, girder.axis_end = (144.0, -14.0, girder_top - 11.25 / 2), (144.0, 46.0, girder_top - 11.25 / 2)
+    girder_axis = girder_top - 11.25 / 2
+    girder.axis_start, girder.axis_end = (144.0, -14.0, girder_axis), (144.0, 46.0, girder_axis)
     post_top = girder_top - 11.25
     elements = [
         _wall("W1", 0.0), _wall("W3", 288.0),
@@ -97,7 +96,16 @@ def test_a_girder_carrying_joists_from_both_sides_gets_their_reactions_summed():
         _box("P2", "column", (142.25, 44.25, 0.0), (145.75, 47.75, post_top)),
         _box("G1", "beam", (142.5, -14.0, post_top), (145.5, 46.0, girder_top), cls="IfcBeam"),
     ]
-    t = _check(joists + [girder], elements)
+    return joists + [girder], elements
+
+
+def test_a_girder_carrying_joists_from_both_sides_gets_their_reactions_summed():
+    # three joists each side at 16 in (tributary 8 + 16 + 8 = 32 in), 12 ft spans, 40 psf live,
+    # bearing on a dropped girder at x = 144 in that sits on two posts; the posts then carry the
+    # joists' reactions at the girder from both sides: 2 x w x (L/2 + a), with w = 40 psf x 32/12 ft
+    # and a = 1.5 in of joist running past the girder's centre (common practice)
+    records, elements = _girder_bay(girder_top=TOP, joist_ends=((-1.75, 145.5), (142.5, 289.75)))
+    t = _check(records, elements)
     assert (t["status"] != "NOT_CHECKED").all(), list(t.loc[t["status"] == "NOT_CHECKED", "reason"])
     g = t.set_index("name").loc["G1"]
     assert "reactions of the members bearing on it" in g["load_sources"]
@@ -113,26 +121,8 @@ def test_joists_hung_on_a_flush_girder_hand_it_their_reactions():
     # joist running 1.75 in past the wall. Reaction at the hanger with the load over the whole
     # 144.25 in: R = w 144.25 (144.25 / 2 - 1.75) / 142.5 = 71.24 w (statics, common practice);
     # the posts carry both sides' reactions: 2 x 71.24 w, w = 40 psf x 32/12 ft for three joists
-    joist_top = TOP + DEPTH
-    joists = []
-    for side, (x0, x1) in enumerate(((-1.75, 142.5), (145.5, 289.75))):
-        for k in range(3):
-            rec = member(1.5, DEPTH, x1 - x0, {"Species": "DF-L", "Grade": "No.2"}, name=f"J{side}{k}")
-            rec.storey = "Level 2"
-            rec.axis_start, rec.axis_end = (x0, k * 16.0, Z_AXIS), (x1, k * 16.0, Z_AXIS)
-            joists.append(rec)
-    girder = member(3.0, 11.25, 60.0, {"Species": "DF-L", "Grade": "No.1"}, ptype="BEAM", name="G1")
-    girder.storey = "Level 2"
-    girder_axis = joist_top - 11.25 / 2
-    girder.axis_start, girder.axis_end = (144.0, -14.0, girder_axis), (144.0, 46.0, girder_axis)
-    post_top = joist_top - 11.25
-    elements = [
-        _wall("W1", 0.0), _wall("W3", 288.0),
-        _box("P1", "column", (142.25, -15.75, 0.0), (145.75, -12.25, post_top)),
-        _box("P2", "column", (142.25, 44.25, 0.0), (145.75, 47.75, post_top)),
-        _box("G1", "beam", (142.5, -14.0, post_top), (145.5, 46.0, joist_top), cls="IfcBeam"),
-    ]
-    t = _check(joists + [girder], elements)
+    records, elements = _girder_bay(girder_top=TOP + DEPTH, joist_ends=((-1.75, 142.5), (145.5, 289.75)))
+    t = _check(records, elements)
     assert (t["status"] != "NOT_CHECKED").all(), list(t.loc[t["status"] == "NOT_CHECKED", "reason"])
     j = t.set_index("name").loc["J00"]
     assert [s.x for s in j["analysis"].supports] == pytest.approx([1.75, 144.25], abs=1e-9)

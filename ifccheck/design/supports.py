@@ -112,12 +112,8 @@ def braced_by_slab(
     and at least ``BRACED_SHARE`` of the member's plan length lies in its footprint widened by
     ``tolerance``. Of several, the one covering most of the member.
     """
-    axes = _Axes(starts, ends, depths)
-    _check_count(guids, len(axes.plan))
-    slabs = _BoxTable(boxes, BRACING_KINDS)
-    member, box = _candidates(axes, axes.top, slabs, slabs.lo[:, 2], tolerance)
-    crossing = _Crossings(axes, slabs, member, box, tolerance)
-    low, high = _range_along(axes.top[member], axes.rise[member], crossing.wide_start, crossing.wide_end)
+    axes, slabs, crossing, low, high = _on_top(guids, starts, ends, depths, boxes, BRACING_KINDS, tolerance)
+    member, box = crossing.member, crossing.box
     share = (crossing.wide_end - crossing.wide_start) / np.where(axes.valid, axes.plan, 1.0)[member]
     on_top = np.abs(slabs.lo[box, 2] - low) <= tolerance
     braces = crossing.crosses & on_top & (slabs.hi[box, 2] >= high - tolerance) & (share >= BRACED_SHARE)
@@ -141,13 +137,8 @@ def posts_on_members(guids: list, starts: np.ndarray, ends: np.ndarray, depths: 
     ``tolerance`` of the member's top where the member's plan line crosses the column's
     footprint widened by ``tolerance``; the position is the centre of the crossing. Of several
     members under one column, the one crossing most of its footprint."""
-    axes = _Axes(starts, ends, depths)
-    _check_count(guids, len(axes.plan))
-    posts = _BoxTable(boxes, POST_KINDS)
-    member, box = _candidates(axes, axes.top, posts, posts.lo[:, 2], tolerance)
-    crossing = _Crossings(axes, posts, member, box, tolerance)
-    low, high = _range_along(axes.top[member], axes.rise[member], crossing.wide_start, crossing.wide_end)
-    foot = posts.lo[box, 2]
+    _, posts, crossing, low, high = _on_top(guids, starts, ends, depths, boxes, POST_KINDS, tolerance)
+    foot = posts.lo[crossing.box, 2]
     stands = crossing.crosses & (foot >= low - tolerance) & (foot <= high + tolerance)
     on = crossing.select(stands)
     x = np.where(np.isfinite(on.start), (on.start + on.end) / 2, (on.wide_start + on.wide_end) / 2)
@@ -156,6 +147,18 @@ def posts_on_members(guids: list, starts: np.ndarray, ends: np.ndarray, depths: 
     for k in np.lexsort((length, on.box)).tolist():  # the longest crossing of each column last, so it stays
         found[posts.boxes[int(on.box[k])].global_id] = (guids[int(on.member[k])], float(x[k]))
     return found
+
+
+def _on_top(guids, starts, ends, depths, boxes, kinds: tuple, tolerance: float) -> tuple:
+    """(axes, boxes of ``kinds``, crossings of the members' plan lines with the boxes whose
+    underside may meet the members' top, lowest and highest top height along each crossing)."""
+    axes = _Axes(starts, ends, depths)
+    _check_count(guids, len(axes.plan))
+    table = _BoxTable(boxes, kinds)
+    member, box = _candidates(axes, axes.top, table, table.lo[:, 2], tolerance)
+    crossing = _Crossings(axes, table, member, box, tolerance)
+    low, high = _range_along(axes.top[member], axes.rise[member], crossing.wide_start, crossing.wide_end)
+    return axes, table, crossing, low, high
 
 
 class _Axes:
