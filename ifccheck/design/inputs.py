@@ -7,7 +7,9 @@ came from the model or from a default, so the verdict can name every assumption.
 
 from __future__ import annotations
 
+import functools
 import math
+import operator
 from collections import Counter
 from dataclasses import replace
 
@@ -23,6 +25,7 @@ from .places import SLAB_KINDS, SPACE_KINDS, edge_overhangs, places_over
 from .supports import POST_KINDS, braced_by_slab, find_supports, posts_on_members
 
 LOAD_COLUMNS = [f"w_{t}" for t in LOAD_TYPES]
+_BY_LOAD_TYPE = operator.itemgetter(*LOAD_TYPES)  # a loads dict's values in LOAD_TYPES order
 
 
 def _section_text(section) -> str:
@@ -38,22 +41,29 @@ def superimposed_loads(record: MemberRecord, tributary: "tuple[float, str]") -> 
     Line loads and area loads × tributary width add; ``tributary`` is (width in inches, where it
     came from), the input's TributaryWidth or the framing run's. Returns (loads, sources, problems).
     """
-    loads = {t: 0.0 for t in LOAD_TYPES}
+    loads = dict.fromkeys(LOAD_TYPES, 0.0)
     sources, problems = [], []
+    inputs = record.inputs
     for prop, load_type in LINE_LOAD_PROPS.items():
-        if prop in record.inputs:
-            loads[load_type] += record.inputs[prop]
-            sources.append(f"{prop} ({record.input_sources.get(prop, 'occurrence')})")
-    area = {p: t for p, t in AREA_LOAD_PROPS.items() if p in record.inputs}
+        if prop in inputs:
+            loads[load_type] += inputs[prop]
+            sources.append(_line_source(prop, record.input_sources.get(prop, "occurrence")))
+    area = [(p, t) for p, t in AREA_LOAD_PROPS.items() if p in inputs]
     if area:
         width, where = tributary
         if not np.isfinite(width):
             problems.append("area loads given but no tributary width (no TributaryWidth, no parallel neighbours)")
         else:
-            for prop, load_type in area.items():
-                loads[load_type] += record.inputs[prop] * width
+            for prop, load_type in area:
+                loads[load_type] += inputs[prop] * width
                 sources.append(f"{prop} x {where}")
     return loads, sources, problems
+
+
+@functools.lru_cache(maxsize=None)
+def _line_source(prop: str, where: str) -> str:
+    """"DeadLoad (type)": a line load of the input property set and where it was found."""
+    return f"{prop} ({where})"
 
 
 def _placed(records: "list[MemberRecord]") -> list:
@@ -312,7 +322,7 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
     framed_at, framing_carriers, carried = framing_points(records, found_in_geometry)
     carriers = set(framed_at)
     area_entries = rules.get("area_loads", [])
-    rows = []
+    derived = []
     for k, r in enumerate(records):
         found_analysis, slab = found_in_geometry.get(k, (None, ""))
         run = runs.get(k)
@@ -354,58 +364,60 @@ def design_inputs(records: "list[MemberRecord]", rules: dict, elements: "list | 
         unbraced = r.inputs.get("UnbracedLength", np.nan)
         if not braced and "UnbracedLength" not in r.inputs and r.global_id in framed_at and analysis is not None:
             unbraced = braced_at_framing(analysis, framed_at[r.global_id], used)
-        member_use = rules_member_use(rules, ptype, r.storey)
         sw_included = _flag(r, "SelfWeightIncluded", d["self_weight_included"], labels["self_weight"], used)
-        s = r.section
-        rows.append(
-            {
-                "global_id": r.global_id,
-                "name": r.name,
-                "ifc_class": r.ifc_class,
-                "predefined_type": ptype,
-                "storey": r.storey,
-                "section": _section_text(s),
-                "section_source": s.source if s else "",
-                "b": s.width if s else math.nan,
-                "d": s.depth if s else math.nan,
-                "plies": s.plies if s else 1,
-                "material_name": r.material.name,
-                "material_category": r.material.category,
-                "material_species": r.material.species,
-                "material_grade": r.material.grade,
-                "input_species": r.inputs.get("Species", ""),
-                "input_grade": r.inputs.get("Grade", ""),
-                "span_read": r.span if r.span is not None else math.nan,
-                "span_is_clear": r.span_is_clear,
-                "span_source": r.span_source,
-                "slope": r.slope,
-                **{f"w_{t}": loads[t] for t in LOAD_TYPES},
-                "load_sources": "; ".join(load_sources),
-                "self_weight_included": bool(sw_included),
-                "bearing_length": _flag(r, "BearingLength", bearing_default,
-                                        labels["bearing"] if _default_bearing_used(analysis) else "", used),
-                "wet": bool(_flag(r, "WetService", d["wet_service"], "dry service (rules default)", used)),
-                "temperature_F": _flag(r, "ServiceTemperature", temperature_default, labels["temperature"], used),
-                "incised": bool(d["incised"]),
-                "braced": bool(braced),
-                "unbraced_length": unbraced,
-                "repetitive": _repetitive(r, ptype in repetitive_types, ptype, run, _slab_over(places.get(k)), used),
-                "tributary_width": tributary[0],
-                "supports_found": "; ".join(f"{sup.source} at {sup.x:.1f} in" for sup in analysis.supports)
-                if analysis is not None else "",
-                "member_use": member_use,
-                "n_live_input": r.inputs.get("LiveDeflectionLimit", np.nan),
-                "n_total_input": r.inputs.get("TotalDeflectionLimit", np.nan),
-                "defaults_used": used,
-                "notices": notices,
-                "problems": problems,
-                "notes": list(r.notes) + (member_analysis.notes if member_analysis is not None else [])
-                + ([run[3]] if run is not None and run[3] else []),
-                "analysis": analysis,
-            }
-        )
-    return pd.DataFrame(rows, columns=_COLUMNS)
+        bearing = _flag(r, "BearingLength", bearing_default, labels["bearing"] if _default_bearing_used(analysis) else "", used)
+        wet = _flag(r, "WetService", d["wet_service"], "dry service (rules default)", used)
+        temperature = _flag(r, "ServiceTemperature", temperature_default, labels["temperature"], used)
+        repetitive = _repetitive(r, ptype in repetitive_types, ptype, run, _slab_over(places.get(k)), used)
+        derived.append((
+            ptype, *_BY_LOAD_TYPE(loads), "; ".join(load_sources), bool(sw_included), bearing, bool(wet),
+            temperature, bool(braced), unbraced, repetitive, tributary[0],
+            "; ".join(f"{sup.source} at {sup.x:.1f} in" for sup in analysis.supports) if analysis is not None else "",
+            rules_member_use(rules, ptype, r.storey), used, notices, problems,
+            list(r.notes) + (member_analysis.notes if member_analysis is not None else [])
+            + ([run[3]] if run is not None and run[3] else []),
+            analysis,
+        ))
+    columns = {**_record_columns(records), **dict(zip(_DERIVED, map(list, zip(*derived)) if derived else [[]] * len(_DERIVED)))}
+    columns["incised"] = [bool(d["incised"])] * len(records)
+    return pd.DataFrame({name: columns[name] for name in _COLUMNS}, columns=_COLUMNS)
 
+
+def _record_columns(records: "list[MemberRecord]") -> dict:
+    """The columns read straight from the records, one list each."""
+    sections = [r.section for r in records]
+    materials = [r.material for r in records]
+    return {
+        "global_id": [r.global_id for r in records],
+        "name": [r.name for r in records],
+        "ifc_class": [r.ifc_class for r in records],
+        "storey": [r.storey for r in records],
+        "section": [_section_text(s) for s in sections],
+        "section_source": [s.source if s else "" for s in sections],
+        "b": [s.width if s else math.nan for s in sections],
+        "d": [s.depth if s else math.nan for s in sections],
+        "plies": [s.plies if s else 1 for s in sections],
+        "material_name": [m.name for m in materials],
+        "material_category": [m.category for m in materials],
+        "material_species": [m.species for m in materials],
+        "material_grade": [m.grade for m in materials],
+        "input_species": [r.inputs.get("Species", "") for r in records],
+        "input_grade": [r.inputs.get("Grade", "") for r in records],
+        "span_read": [r.span if r.span is not None else math.nan for r in records],
+        "span_is_clear": [r.span_is_clear for r in records],
+        "span_source": [r.span_source for r in records],
+        "slope": [r.slope for r in records],
+        "n_live_input": [r.inputs.get("LiveDeflectionLimit", np.nan) for r in records],
+        "n_total_input": [r.inputs.get("TotalDeflectionLimit", np.nan) for r in records],
+    }
+
+
+#: the columns worked out per member in design_inputs, in the order of its tuples
+_DERIVED = [
+    "predefined_type", *LOAD_COLUMNS, "load_sources", "self_weight_included", "bearing_length", "wet",
+    "temperature_F", "braced", "unbraced_length", "repetitive", "tributary_width", "supports_found",
+    "member_use", "defaults_used", "notices", "problems", "notes", "analysis",
+]
 
 _COLUMNS = [
     "global_id", "name", "ifc_class", "predefined_type", "storey", "section", "section_source", "b", "d",
@@ -414,3 +426,4 @@ _COLUMNS = [
     "self_weight_included", "bearing_length", "wet", "temperature_F", "incised", "braced", "unbraced_length",
     "repetitive", "tributary_width", "supports_found", "member_use", "n_live_input", "n_total_input", "defaults_used", "notices", "problems", "notes", "analysis",
 ]
+
