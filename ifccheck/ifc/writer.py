@@ -266,10 +266,12 @@ class EarlyCopy:
 
 
 def _can_fork() -> bool:
-    """Whether a child process may be forked: where forking is the platform's usual way to start
-    one (elsewhere system libraries may not survive a fork), with no other Python thread running
-    (a lock it holds would stay held in the child)."""
-    return hasattr(os, "fork") and sys.platform.startswith("linux") and threading.active_count() == 1
+    """Whether a child process may be forked, and is worth it: where forking is the platform's
+    usual way to start one (elsewhere system libraries may not survive a fork), with no other
+    Python thread running (a lock it holds would stay held in the child), and with a second core
+    to run it on (on one core the child only takes turns with this process)."""
+    return (hasattr(os, "fork") and sys.platform.startswith("linux") and threading.active_count() == 1
+            and len(os.sched_getaffinity(0)) >= 2)
 
 
 def _write_and_exit(model: ifcopenshell.file, path: str) -> None:
