@@ -164,3 +164,14 @@ def test_a_run_under_one_slab_is_repetitive_and_without_a_slab_the_type_decides(
     assert "framing run of 10 but no slab found over it; BEAM default" in bare.loc["J05", "reason"]
     wide = run_basis(beams(32.0), rules(STOREY), ELEMENTS).set_index("name")
     assert not wide["repetitive"].any()
+
+
+def test_the_data_readiness_summary_groups_missing_slab_weights():
+    # both ways a slab weight can be missing count under one heading of the coordinator's list
+    from ifccheck.report.console import readiness
+
+    odd = ElementBox(**{**DECK.__dict__, "layers": (("Unobtainium board", 0.75),)})
+    unknown = run_basis(joists(3), rules(STOREY, slab_weight_included=False), [odd])
+    missing = run_basis(joists(2), rules(STOREY, slab_weight_included=False), [READING])
+    lacks = dict(readiness(list(unknown["problems"]) + list(missing["problems"])))
+    assert lacks == {"the slab's weight (a slab over the member, its material's unit weight)": 5}

@@ -69,6 +69,8 @@ def _structural_lines(found) -> list:
 
 #: what a NOT_CHECKED reason says is missing, by words in it (first match wins)
 _LACKS = (
+    ("slab's weight", "the slab's weight (a slab over the member, its material's unit weight)"),
+    ("the weight of", "the slab's weight (a slab over the member, its material's unit weight)"),
     ("material not identified", "material not identified"),
     ("grade", "an NDS species and grade"),
     ("species", "an NDS species and grade"),
