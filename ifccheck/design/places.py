@@ -46,8 +46,12 @@ def places_over(guids: list, starts: np.ndarray, ends: np.ndarray, depths: np.nd
     """
     axes = _Axes(starts, ends, depths)
     _check_count(guids, len(axes.plan))
-    slabs = _covering(axes, _BoxTable(boxes, SLAB_KINDS), tolerance, _slab_reaches_top)
-    spaces = _covering(axes, _BoxTable(boxes, SPACE_KINDS), tolerance, _floor_above_top)
+    slab_table, space_table = _BoxTable(boxes, SLAB_KINDS), _BoxTable(boxes, SPACE_KINDS)
+    # the member top heights at which each box can fit: the grid cubes to look in
+    slab_levels = (slab_table.lo[:, 2] - tolerance, slab_table.hi[:, 2] + tolerance)
+    floor_levels = (space_table.lo[:, 2] - FLOOR_BUILD_UP, space_table.lo[:, 2] + tolerance)
+    slabs = _covering(axes, slab_table, slab_levels, tolerance, _slab_reaches_top)
+    spaces = _covering(axes, space_table, floor_levels, tolerance, _floor_above_top)
     return [PlacesOver(a, b) for a, b in zip(slabs, spaces)]
 
 
@@ -62,17 +66,11 @@ def _floor_above_top(table: _BoxTable, box, low, high, tolerance: float):
     return (floor >= high - tolerance) & (floor <= low + FLOOR_BUILD_UP)
 
 
-def _search_levels(table: _BoxTable, fits, tolerance: float) -> tuple:
-    """(lowest, highest) member top heights at which each box can fit: the grid cubes to look in."""
-    if fits is _slab_reaches_top:
-        return table.lo[:, 2] - tolerance, table.hi[:, 2] + tolerance
-    return table.lo[:, 2] - FLOOR_BUILD_UP, table.lo[:, 2] + tolerance
-
-
-def _covering(axes: _Axes, table: _BoxTable, tolerance: float, fits) -> list:
-    """Per member, the (ElementBox, share) of the boxes that cover enough of it and fit, largest share first."""
+def _covering(axes: _Axes, table: _BoxTable, levels: tuple, tolerance: float, fits) -> list:
+    """Per member, the (ElementBox, share) of the boxes that cover enough of it and fit, largest
+    share first; ``levels`` are the lowest and highest member top at which each box may fit."""
     out = [[] for _ in range(len(axes.plan))]
-    member, box = _candidates(axes, axes.top, table, _search_levels(table, fits, tolerance), tolerance)
+    member, box = _candidates(axes, axes.top, table, levels, tolerance)
     if not len(member):
         return out
     crossing = _Crossings(axes, table, member, box, tolerance)
@@ -129,7 +127,7 @@ def edge_overhangs(guids: list, mids: np.ndarray, depths: np.ndarray, outward: n
     return overhang, notes
 
 
-def _nearest_strip_support(guids, starts, ends, depths, boxes, tolerance: float, to_edge) -> tuple:  # noqa: PLR0913
+def _nearest_strip_support(guids, starts, ends, depths, boxes, tolerance: float, to_edge) -> tuple:
     """(distance in to the centre of the nearest wall or beam the search lines cross before the
     slab edge, NaN for none; its label, "" for none) of each search line from a member's mid-point."""
     axes = _Axes(starts, ends, depths)
