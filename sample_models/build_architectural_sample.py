@@ -219,30 +219,17 @@ class BarnBuilder(SampleBuilder):
     """The Quillfeather Barn: framing members as in the studio models, plus walls, a floor slab
     and a roof as extruded solids, and nothing else (no loads, no analysis model)."""
 
+    preprocessor = PREPROCESSOR
+    site_name = f"{BARN_NAME} site"
+    building_name = BARN_NAME
+    address_lines = BARN_ADDRESS_LINES
+    town = BARN_TOWN
+    storey_levels = BARN_STOREYS
+
     def __init__(self):
         super().__init__(UNITS)
         self.project.Name = BARN_NAME
         self.project.Description = BARN_DESCRIPTION
-
-    def add_spatial_structure(self) -> dict:
-        """Project → site → building → storeys, as in the studio models but with the barn's names."""
-        site = ifcopenshell.api.root.create_entity(self.model, "IfcSite", name=f"{BARN_NAME} site")
-        building = ifcopenshell.api.root.create_entity(self.model, "IfcBuilding", name=BARN_NAME)
-        building.BuildingAddress = self.model.create_entity(
-            "IfcPostalAddress", Purpose="SITE", AddressLines=BARN_ADDRESS_LINES, Town=BARN_TOWN
-        )
-        ifcopenshell.api.aggregate.assign_object(self.model, products=[site], relating_object=self.project)
-        ifcopenshell.api.aggregate.assign_object(self.model, products=[building], relating_object=site)
-        site.ObjectPlacement = self.geometry.world_placement()
-        building.ObjectPlacement = self.geometry.world_placement()
-        storeys = {}
-        for name, elevation in BARN_STOREYS:
-            storey = ifcopenshell.api.root.create_entity(self.model, "IfcBuildingStorey", name=name)
-            ifcopenshell.api.aggregate.assign_object(self.model, products=[storey], relating_object=building)
-            storey.Elevation = self.geometry.length(elevation)
-            storey.ObjectPlacement = self.geometry.world_placement((0.0, 0.0, elevation))
-            storeys[name] = storey
-        return storeys
 
     def slab_body(self, width: float, length: float, thickness: float):
         """'Body': a width x length rectangle (local x, local y from the placement's origin along
@@ -319,11 +306,6 @@ class BarnBuilder(SampleBuilder):
         self.fix_global_ids()
         self.fix_header()
         return self.model
-
-    def fix_header(self) -> None:
-        super().fix_header()
-        self.model.header.file_name.preprocessor_version = PREPROCESSOR
-        self.model.header.file_name.originating_system = PREPROCESSOR
 
 
 def build_architectural_sample(out_dir: Path) -> Path:

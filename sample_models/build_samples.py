@@ -525,7 +525,15 @@ class GeometryWriter:
 
 
 class SampleBuilder:
-    """Builds one Quillfeather Studio model in the given unit system."""
+    """Builds one Quillfeather Studio model in the given unit system. Subclasses building other
+    scenarios set the class attributes below to their own names."""
+
+    preprocessor = PREPROCESSOR  # the header's preprocessor and originating system
+    site_name = "Quillfeather Studio site"
+    building_name = PROJECT_NAME
+    address_lines = ADDRESS_LINES
+    town = TOWN
+    storey_levels = STOREYS  # (name, elevation in inches)
 
     def __init__(self, units: UnitSystem):
         self.units = units
@@ -553,10 +561,10 @@ class SampleBuilder:
         return user, application
 
     def add_spatial_structure(self) -> dict:
-        site = ifcopenshell.api.root.create_entity(self.model, "IfcSite", name="Quillfeather Studio site")
-        building = ifcopenshell.api.root.create_entity(self.model, "IfcBuilding", name=PROJECT_NAME)
+        site = ifcopenshell.api.root.create_entity(self.model, "IfcSite", name=self.site_name)
+        building = ifcopenshell.api.root.create_entity(self.model, "IfcBuilding", name=self.building_name)
         building.BuildingAddress = self.model.create_entity(
-            "IfcPostalAddress", Purpose="SITE", AddressLines=ADDRESS_LINES, Town=TOWN
+            "IfcPostalAddress", Purpose="SITE", AddressLines=self.address_lines, Town=self.town
         )
         ifcopenshell.api.aggregate.assign_object(self.model, products=[site], relating_object=self.project)
         ifcopenshell.api.aggregate.assign_object(self.model, products=[building], relating_object=site)
@@ -564,7 +572,7 @@ class SampleBuilder:
         site.ObjectPlacement = self.geometry.world_placement()
         building.ObjectPlacement = self.geometry.world_placement()
         storeys = {}
-        for name, elevation in STOREYS:
+        for name, elevation in self.storey_levels:
             storey = ifcopenshell.api.root.create_entity(self.model, "IfcBuildingStorey", name=name)
             ifcopenshell.api.aggregate.assign_object(self.model, products=[storey], relating_object=building)
             storey.Elevation = self.geometry.length(elevation)
@@ -723,8 +731,8 @@ class SampleBuilder:
         header.file_name.time_stamp = TIME_STAMP
         header.file_name.author = (AUTHOR,)
         header.file_name.organization = (ORGANIZATION,)
-        header.file_name.preprocessor_version = PREPROCESSOR
-        header.file_name.originating_system = PREPROCESSOR
+        header.file_name.preprocessor_version = self.preprocessor
+        header.file_name.originating_system = self.preprocessor
         header.file_name.authorization = "none"
 
 

@@ -232,6 +232,8 @@ class StructuralSampleBuilder(SampleBuilder):
     """The Quillfeather Annex: physical members as in the studio models, plus one
     IfcStructuralAnalysisModel whose curve members carry the supports and loads."""
 
+    preprocessor = PREPROCESSOR
+
     def __init__(self):
         super().__init__(UNITS)  # foot, lbf and lbf/ft: loads below are written in these units
         self.project.Name = ANNEX_NAME
@@ -419,11 +421,6 @@ class StructuralSampleBuilder(SampleBuilder):
         self.fix_global_ids()
         self.fix_header()
         return self.model
-
-    def fix_header(self) -> None:
-        super().fix_header()
-        self.model.header.file_name.preprocessor_version = PREPROCESSOR
-        self.model.header.file_name.originating_system = PREPROCESSOR
 
 
 def build_structural_sample(out_dir: Path) -> Path:
